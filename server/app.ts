@@ -1,0 +1,78 @@
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { adminRouter } from './admin/admin.routes';
+import type { AppContext } from './app-context';
+import { authRouter } from './auth/auth.routes';
+import { createPassport } from './auth/passport-setup';
+import { healthRouter } from './health/health.routes';
+import { requireCsrfToken } from './http/csrf';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import { requestLogger } from './http/request-logger';
+import { sessionMiddleware } from './http/session';
+import { projectsRouter } from './projects/projects.routes';
+
+/** Builds the Express app for a context; never listens (main.ts and tests do). */
+export function createApp(ctx: AppContext): Express {
+  const app = express();
+  const passport = createPassport(ctx.dataSource);
+  app.disable('x-powered-by');
+  app.set('trust proxy', ctx.config.local ? false : 1);
+  app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: contentSecurityPolicy() }, hsts: !ctx.config.local }));
+  app.use(requestLogger(ctx.logger));
+
+  // Health first: it needs no session, so it answers while the session store is down.
+  app.use('/api/health', healthRouter(ctx));
+
+  const api = express.Router();
+  api.use(express.json({ limit: ctx.config.jsonLimit, strict: true }));
+  api.use(sessionMiddleware(ctx.config, ctx.dataSource));
+  api.use(passport.initialize());
+  api.use(passport.session());
+  api.use(requireCsrfToken);
+  api.use('/auth', authRouter(ctx, passport));
+  api.use('/projects', projectsRouter(ctx));
+  api.use('/admin', adminRouter(ctx));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  serveClient(app, ctx.config.clientDir);
+  app.use(errorHandler);
+  return app;
+}
+
+/** The built Angular app: hashed files cached for a year, index.html never, and every other path is a client route. */
+function serveClient(app: Express, clientDir: string): void {
+  app.use(
+    express.static(clientDir, {
+      index: false,
+      setHeaders: (res, file) => {
+        const hashed = /-[A-Z0-9]{8,}\.(js|css)$/.test(file) || file.includes(`${path.sep}media${path.sep}`);
+        res.setHeader('Cache-Control', hashed ? 'public, max-age=31536000, immutable' : 'no-cache');
+      },
+    }),
+  );
+  app.get('/{*splat}', (_req, res) => {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(path.join(clientDir, 'index.html'), (err) => {
+      if (err) res.status(503).type('text').send('The client is not built yet. Run `npm start`, which builds it.');
+    });
+  });
+}
+
+/** Same-origin everything: the page may load nothing from another host. */
+function contentSecurityPolicy() {
+  return {
+    'default-src': ["'self'"],
+    'script-src': ["'self'"],
+    // Angular inserts component styles as <style> elements.
+    'style-src': ["'self'", "'unsafe-inline'"],
+    'font-src': ["'self'", 'data:'],
+    'img-src': ["'self'", 'data:', 'blob:'],
+    'connect-src': ["'self'"],
+    'object-src': ["'none'"],
+    'base-uri': ["'self'"],
+    'form-action': ["'self'"],
+    'frame-ancestors': ["'none'"],
+  };
+}

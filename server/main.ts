@@ -1,0 +1,52 @@
+import type { Server } from 'node:http';
+import { pino, type Logger } from 'pino';
+import type { AppContext } from './app-context';
+import { createApp } from './app';
+import { loadConfig, type Config } from './config';
+import { createDataSource } from './database/data-source';
+import { startFakeSmtp } from './mail/fake-smtp';
+import { Mailer } from './mail/mailer';
+
+export interface RunningServer {
+  ctx: AppContext;
+  server: Server;
+  stop(): Promise<void>;
+}
+
+/** Connects, migrates, starts the fake SMTP server in local mode, and listens. */
+export async function startServer(config: Config = loadConfig(), logger: Logger = pino({ level: config.logLevel })): Promise<RunningServer> {
+  const dataSource = createDataSource(config.db);
+  await dataSource.initialize();
+  const applied = await dataSource.runMigrations({ transaction: 'each' });
+  if (applied.length > 0) logger.info({ migrations: applied.map((m) => m.name) }, 'migrations applied');
+
+  const smtp = config.smtp.fake ? await startFakeSmtp(config.smtp.host, config.smtp.port, config.storageDir) : null;
+  const mailer = new Mailer(config.smtp, logger);
+  const ctx: AppContext = { config, dataSource, mailer, logger };
+  const server = createApp(ctx).listen(config.port, config.host);
+  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
+  logger.info(`Etchfile is serving on http://${config.host}:${config.port}`);
+
+  return {
+    ctx,
+    server,
+    async stop() {
+      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+      // Keep-alive connections would hold close() open until they time out.
+      server.closeAllConnections();
+      await closed;
+      mailer.close();
+      await smtp?.close();
+      await dataSource.destroy();
+    },
+  };
+}
+
+// Run directly (`npm run serve`, production): the database must already be running.
+if (import.meta.url === `file://${process.argv[1]}`) {
+  void startServer().then((running) => {
+    for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+      process.once(signal, () => void running.stop().then(() => process.exit(0)));
+    }
+  });
+}
