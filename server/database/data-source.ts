@@ -1,10 +1,7 @@
 import 'reflect-metadata';
 import { DataSource } from 'typeorm';
 import type { Config } from '../config';
-import { PasswordToken } from '../auth/password-token.entity';
-import { User } from '../auth/user.entity';
-import { ProjectMembership } from '../projects/project-membership.entity';
-import { Project } from '../projects/project.entity';
+import { ENTITIES } from './entities';
 
 /** The one DataSource shape the server, scripts and tests use; schema changes come only from migrations. */
 export function createDataSource(db: Config['db']): DataSource {
@@ -15,7 +12,7 @@ export function createDataSource(db: Config['db']): DataSource {
     database: db.name,
     username: db.user,
     password: db.password,
-    entities: [User, PasswordToken, Project, ProjectMembership],
+    entities: ENTITIES,
     migrations: [`${import.meta.dirname}/../migrations/*.{ts,js}`],
     migrationsTableName: 'schema_migrations',
     synchronize: false,

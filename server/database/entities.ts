@@ -1,0 +1,10 @@
+import { PasswordToken } from '../auth/password-token.entity';
+import { User } from '../auth/user.entity';
+import { ProjectMembership } from '../projects/project-membership.entity';
+import { Project } from '../projects/project.entity';
+
+/**
+ * Every entity, imported as classes: a path glob would make TypeORM load second copies
+ * of the modules under tsx, whose classes it then fails to recognise.
+ */
+export const ENTITIES = [User, PasswordToken, Project, ProjectMembership];
