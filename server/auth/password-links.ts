@@ -24,7 +24,8 @@ export async function issuePasswordToken(ds: DataSource, user: User, purpose: Pa
  * The conditional UPDATE makes the token single-use even when two requests race.
  */
 export async function consumePasswordToken(m: EntityManager, token: string): Promise<string> {
-  const rows: { user_id: string }[] = await m.query(
+  // TypeORM answers an UPDATE with [rows, affectedCount], not the rows alone.
+  const [rows]: [{ user_id: string }[], number] = await m.query(
     `UPDATE password_tokens SET used_at = now()
       WHERE token_hash = $1 AND used_at IS NULL AND expires_at > now()
       RETURNING user_id`,
