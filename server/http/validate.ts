@@ -28,8 +28,8 @@ export function validate(schemas: RequestSchemas): RequestHandler {
     }
     if ('body' in parsed) req.body = parsed.body;
     // Express 5 exposes query and params through getters; shadow them on this request.
-    if ('query' in parsed) Object.defineProperty(req, 'query', { value: parsed.query, enumerable: true });
-    if ('params' in parsed) Object.defineProperty(req, 'params', { value: parsed.params, enumerable: true });
+    if ('query' in parsed) Object.defineProperty(req, 'query', { value: parsed.query, enumerable: true, writable: true, configurable: true });
+    if ('params' in parsed) Object.defineProperty(req, 'params', { value: parsed.params, enumerable: true, writable: true, configurable: true });
     next();
   };
 }
