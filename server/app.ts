@@ -2,6 +2,7 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { adminRouter } from './admin/admin.routes';
+import { archiveRouter } from './archive/archive.routes';
 import type { AppContext } from './app-context';
 import { authRouter } from './auth/auth.routes';
 import { createPassport } from './auth/passport-setup';
@@ -32,6 +33,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(requireCsrfToken);
   api.use('/auth', authRouter(ctx, passport));
   api.use('/projects', projectsRouter(ctx));
+  api.use('/projects/:projectId', archiveRouter(ctx));
   api.use('/admin', adminRouter(ctx));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -1,3 +1,9 @@
+import { Material } from '../archive/material.entity';
+import { RouteStep } from '../archive/route-step.entity';
+import { SampleLayer } from '../archive/sample-layer.entity';
+import { Sample } from '../archive/sample.entity';
+import { SpecimenLocation } from '../archive/specimen-location.entity';
+import { Specimen } from '../archive/specimen.entity';
 import { PasswordToken } from '../auth/password-token.entity';
 import { User } from '../auth/user.entity';
 import { ProjectMembership } from '../projects/project-membership.entity';
@@ -7,4 +13,15 @@ import { Project } from '../projects/project.entity';
  * Every entity, imported as classes: a path glob would make TypeORM load second copies
  * of the modules under tsx, whose classes it then fails to recognise.
  */
-export const ENTITIES = [User, PasswordToken, Project, ProjectMembership];
+export const ENTITIES = [
+  User,
+  PasswordToken,
+  Project,
+  ProjectMembership,
+  Material,
+  Sample,
+  SampleLayer,
+  RouteStep,
+  Specimen,
+  SpecimenLocation,
+];
