@@ -6,6 +6,7 @@ import { User } from '../auth/user.entity';
 import { ProjectMembership } from '../projects/project-membership.entity';
 import { Project } from '../projects/project.entity';
 import { DEMO_ACCOUNTS } from './demo-accounts';
+import { loadDemoArchive } from './demo-archive';
 
 // An invented lab: the Kestrel Valley Institute's laminate metallurgy group. No real people, labs or alloys.
 const PEOPLE: { email: string; displayName: string; siteRole: SiteRole }[] = [
@@ -68,6 +69,7 @@ export async function loadDemoScenarioOnce(ds: DataSource, logger: Logger): Prom
       if (await m.existsBy(Project, { code: fields.code })) continue;
       const project = await m.save(m.create(Project, fields));
       for (const [who, role] of members) await m.insert(ProjectMembership, { projectId: project.id, userId: ids.get(who)!, role });
+      if (project.code === 'KV-LAM-24') await loadDemoArchive(m, project.id);
     }
     await m.query('INSERT INTO app_state (key, value) VALUES ($1, $2)', [MARKER, JSON.stringify({ loadedAt: new Date().toISOString() })]);
   });
