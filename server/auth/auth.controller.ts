@@ -6,7 +6,7 @@ import { DEMO_ACCOUNTS } from '../demo/demo-accounts';
 import { AppError } from '../http/app-error';
 import { csrfTokenFor, renewCsrfToken } from '../http/csrf';
 import { currentUser } from '../http/require-auth';
-import { SESSION_COOKIE } from '../http/session';
+import { saveSession, SESSION_COOKIE } from '../http/session';
 import { AuthService } from './auth.service';
 import type { SignInRefusal } from './passport-setup';
 
@@ -26,8 +26,11 @@ export class AuthController {
     this.service = new AuthService(ctx);
   }
 
-  session: RequestHandler = (req, res) => {
-    res.json(this.sessionInfo(req, csrfTokenFor(req)));
+  session: RequestHandler = async (req, res) => {
+    const csrfToken = csrfTokenFor(req);
+    // A token is only worth handing out once it is stored; an unreachable store becomes a 503 here.
+    await saveSession(req);
+    res.json(this.sessionInfo(req, csrfToken));
   };
 
   signIn: RequestHandler = async (req, res) => {

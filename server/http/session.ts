@@ -1,6 +1,6 @@
 import connectPgSimple from 'connect-pg-simple';
 import session from 'express-session';
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import type { Pool } from 'pg';
 import type { DataSource } from 'typeorm';
 import type { Config } from '../config';
@@ -26,4 +26,13 @@ export function sessionMiddleware(config: Config, ds: DataSource): RequestHandle
       maxAge: config.sessionMaxAgeMs,
     },
   });
+}
+
+/**
+ * Stores the session now rather than when the response ends: express-session saves after
+ * the headers are sent, so a store that is down would otherwise turn into a 200 carrying
+ * state (such as a new CSRF token) that was never kept, instead of a 503.
+ */
+export function saveSession(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
 }
