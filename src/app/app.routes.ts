@@ -1,0 +1,21 @@
+import { Routes } from '@angular/router';
+import { adminGuard } from './core/admin-guard';
+import { authGuard } from './core/auth-guard';
+import { Shell } from './core/shell';
+
+export const routes: Routes = [
+  { path: '', pathMatch: 'full', redirectTo: 'projects' },
+  // Sign-in, forgot and reset password: no shell, no guard.
+  { path: '', loadChildren: () => import('./auth/auth.routes') },
+  {
+    path: '',
+    component: Shell,
+    canActivate: [authGuard],
+    children: [
+      { path: 'projects', loadChildren: () => import('./projects/projects.routes') },
+      { path: 'account', loadChildren: () => import('./auth/auth.routes').then((m) => m.accountRoutes) },
+      { path: 'admin', canActivate: [adminGuard], loadChildren: () => import('./admin/admin.routes') },
+    ],
+  },
+  { path: '**', title: 'Page not found · Etchfile', loadComponent: () => import('./core/not-found') },
+];

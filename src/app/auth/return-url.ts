@@ -1,0 +1,13 @@
+const DEFAULT_PAGE = '/projects';
+
+/**
+ * Where to go after signing in. Only paths inside this app are followed, so
+ * a crafted link cannot send a fresh session to another site. Pure.
+ */
+export function safeReturnUrl(returnUrl: string | null | undefined): string {
+  if (!returnUrl || !returnUrl.startsWith('/')) return DEFAULT_PAGE;
+  // "//host" and "/\host" are read by browsers as another origin.
+  if (returnUrl.startsWith('//') || returnUrl.startsWith('/\\')) return DEFAULT_PAGE;
+  if (returnUrl.startsWith('/sign-in')) return DEFAULT_PAGE;
+  return returnUrl;
+}
