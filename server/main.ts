@@ -1,5 +1,6 @@
 import type { Server } from 'node:http';
-import { pino, type Logger } from 'pino';
+import type { Logger } from 'pino';
+import { createLogger } from './logger';
 import type { AppContext } from './app-context';
 import { createApp } from './app';
 import { loadConfig, type Config } from './config';
@@ -14,7 +15,7 @@ export interface RunningServer {
 }
 
 /** Connects, migrates, starts the fake SMTP server in local mode, and listens. */
-export async function startServer(config: Config = loadConfig(), logger: Logger = pino({ level: config.logLevel })): Promise<RunningServer> {
+export async function startServer(config: Config = loadConfig(), logger: Logger = createLogger(config)): Promise<RunningServer> {
   const dataSource = createDataSource(config.db);
   await dataSource.initialize();
   const applied = await dataSource.runMigrations({ transaction: 'each' });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { PASSWORD_MAX, PASSWORD_MIN } from './auth-constants';
 import type { SiteRole } from './roles';
 
 /** The signed-in user as the client sees it. */
@@ -24,11 +25,7 @@ export interface DemoAccount {
   role: string;
 }
 
-export const CSRF_HEADER = 'x-csrf-token';
-
-/** Passwords: long enough to resist guessing, short enough to hash cheaply. */
-export const PASSWORD_MIN = 10;
-export const PASSWORD_MAX = 200;
+export { CSRF_HEADER, PASSWORD_MAX, PASSWORD_MIN } from './auth-constants';
 
 const email = z.string().trim().toLowerCase().pipe(z.email({ error: 'Enter a valid e-mail address.' }));
 const newPassword = z

@@ -11,6 +11,10 @@ export function requestLogger(logger: Logger) {
       res.setHeader('x-request-id', id);
       return id;
     },
+    // Static files of the client would drown the API lines.
+    autoLogging: { ignore: (req) => !(req.url ?? '').startsWith('/api') },
+    customSuccessMessage: (req, res, ms) => `${req.method} ${req.url} ${res.statusCode} ${Math.round(ms)} ms`,
+    customErrorMessage: (req, res, err) => `${req.method} ${req.url} ${res.statusCode} ${err.message}`,
     customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
     serializers: {
       req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),

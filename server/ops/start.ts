@@ -1,4 +1,4 @@
-import { pino } from 'pino';
+import { createLogger } from '../logger';
 import { loadConfig } from '../config';
 import { DEMO_ACCOUNTS } from '../demo/demo-accounts';
 import { startServer } from '../main';
@@ -7,7 +7,7 @@ import { prepareDatabase } from './prepare-database';
 
 /** `npm start`: database, demo scenario, client build, then one process serving app and API. */
 const config = loadConfig();
-const logger = pino({ level: config.logLevel });
+const logger = createLogger(config);
 const cluster = await prepareDatabase(config, logger, { fresh: false, demo: config.local });
 buildClientIfStale();
 const running = await startServer(config, logger);

@@ -10,7 +10,7 @@ import { SessionStore } from '../core/session-store';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
 import { AuthApi } from './auth-api';
 import { ConfirmMatcher, passwordsMatch } from './password-match';
-import { PASSWORD_MAX, PASSWORD_MIN } from './password-rules';
+import { PASSWORD_MAX, PASSWORD_MIN } from '../../../shared/auth-constants';
 
 /** The signed-in user's profile and password. */
 @Component({

@@ -11,7 +11,7 @@ import { ValidationMessagePipe } from '../core/validation-message-pipe';
 import { AuthApi } from './auth-api';
 import { AuthFrame } from './auth-frame';
 import { ConfirmMatcher, passwordsMatch } from './password-match';
-import { PASSWORD_MAX, PASSWORD_MIN } from './password-rules';
+import { PASSWORD_MAX, PASSWORD_MIN } from '../../../shared/auth-constants';
 
 /** Reached from a reset or invitation e-mail: `/reset-password?token=…`. */
 @Component({

@@ -1,15 +1,9 @@
 import { HttpErrorResponse, HttpInterceptorFn, HttpRequest } from '@angular/common/http';
 import { inject } from '@angular/core';
 import { catchError, from, switchMap, throwError } from 'rxjs';
-import type { CSRF_HEADER as SharedCsrfHeader } from '../../../shared/auth';
+import { CSRF_HEADER } from '../../../shared/auth-constants';
 import { isApiErrorBody } from '../../../shared/api-error';
 import { SessionStore } from './session-store';
-
-/**
- * Restated rather than imported: shared/auth builds its zod schemas on load,
- * which would put zod in the first download. The type keeps the two equal.
- */
-const CSRF_HEADER: typeof SharedCsrfHeader = 'x-csrf-token';
 
 const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
