@@ -82,9 +82,9 @@ describe('archive: specimens and locations', () => {
     const created = (await researcher.post(specimens(), specimen())).body;
     const path = `${specimens()}/${created.id}/locations`;
     const loc = (await researcher.post(path, { name: 'edge' })).body;
-    const renamed = await researcher.request('PUT', `${path}/${loc.id}`, { name: 'edge, left', xMm: 0.5, yMm: null });
+    const renamed = await researcher.request<any>('PUT', `${path}/${loc.id}`, { name: 'edge, left', xMm: 0.5, yMm: null });
     expect(renamed.status).to.equal(200);
     expect(renamed.body.name).to.equal('edge, left');
-    expect((await researcher.request('PUT', `${path}/${crypto.randomUUID()}`, { name: 'x' })).status).to.equal(404);
+    expect((await researcher.request<any>('PUT', `${path}/${crypto.randomUUID()}`, { name: 'x' })).status).to.equal(404);
   });
 });
