@@ -36,6 +36,19 @@ const schema = z
     EF_INVITE_TOKEN_HOURS: z.coerce.number().positive().default(72),
     EF_JSON_LIMIT: z.string().default('100kb'),
     EF_LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
+    EF_STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
+    EF_S3_ENDPOINT: z.url().optional(),
+    EF_S3_REGION: z.string().default('us-east-1'),
+    EF_S3_BUCKET: z.string().default('etchfile'),
+    EF_S3_ACCESS_KEY_ID: z.string().optional(),
+    EF_S3_SECRET_ACCESS_KEY: z.string().optional(),
+    EF_S3_FORCE_PATH_STYLE: z.stringbool().default(true),
+    // 2 GiB: a stitched 20000² 16-bit RGB panorama is 2.4 GB uncompressed, most arrive compressed.
+    EF_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(2 * 1024 ** 3),
+    // 400 Mpx admits a 20000 × 20000 px panorama; larger declared sizes are refused before decoding.
+    EF_MAX_IMAGE_PIXELS: z.coerce.number().int().positive().default(400_000_000),
+    EF_WORKER: z.stringbool().default(true),
+    EF_JOB_TIMEOUT_MIN: z.coerce.number().positive().default(30),
   })
   .refine((env) => env.EF_MODE === 'local' || env.EF_SESSION_SECRET, {
     error: 'EF_SESSION_SECRET (32+ characters) is required in production mode.',
@@ -80,5 +93,23 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     inviteTokenMs: e.EF_INVITE_TOKEN_HOURS * 3600_000,
     jsonLimit: e.EF_JSON_LIMIT,
     logLevel: e.EF_LOG_LEVEL,
+    files: {
+      driver: e.EF_STORAGE_DRIVER,
+      s3: {
+        endpoint: e.EF_S3_ENDPOINT,
+        region: e.EF_S3_REGION,
+        bucket: e.EF_S3_BUCKET,
+        accessKeyId: e.EF_S3_ACCESS_KEY_ID,
+        secretAccessKey: e.EF_S3_SECRET_ACCESS_KEY,
+        forcePathStyle: e.EF_S3_FORCE_PATH_STYLE,
+      },
+    },
+    images: {
+      uploadMaxBytes: e.EF_UPLOAD_MAX_BYTES,
+      maxPixels: e.EF_MAX_IMAGE_PIXELS,
+    },
+    /** Run the derivatives worker inside this process (`npm start`); `npm run worker` runs more elsewhere. */
+    worker: e.EF_WORKER,
+    jobTimeoutSeconds: Math.round(e.EF_JOB_TIMEOUT_MIN * 60),
   };
 }
