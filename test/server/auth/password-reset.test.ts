@@ -183,4 +183,17 @@ describe('auth: password reset by e-mailed link', () => {
     expectApiError(res, 422, 'validation_failed');
     expect(fieldsOf(res)).to.deep.equal(['body.email']);
   });
+
+  it(`when one address asks ${testConfig.signInLimit.max} times, then the next request is 429 and sends nothing`, async () => {
+    const user = await makeUser();
+    for (let i = 0; i < testConfig.signInLimit.max; i++) expect((await requestReset(user.email)).status).to.equal(202);
+    const sent = (await mailsTo(user.email)).length;
+    const tokens = await passwordTokens(user.id);
+
+    const res = await requestReset(user.email);
+
+    expect(expectApiError(res, 429, 'too_many_requests').message).to.match(/wait \d+ minutes?/i);
+    expect((await mailsTo(user.email)).length).to.equal(sent);
+    expect(await passwordTokens(user.id)).to.deep.equal(tokens);
+  });
 });

@@ -30,8 +30,8 @@ describe('http: when the database cannot be reached', () => {
 
   after(async () => {
     await app.close();
-    await proxy.close();
     await dataSource.destroy();
+    await proxy.close();
   });
 
   it('when the health check runs, then 503 with database "down"', async () => {
