@@ -7,6 +7,7 @@ import type { AppContext } from './app-context';
 import { authRouter } from './auth/auth.routes';
 import { createPassport } from './auth/passport-setup';
 import { healthRouter } from './health/health.routes';
+import { imagesRouter } from './images/images.routes';
 import { requireCsrfToken } from './http/csrf';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { requestLogger } from './http/request-logger';
@@ -34,6 +35,7 @@ export function createApp(ctx: AppContext): Express {
   api.use('/auth', authRouter(ctx, passport));
   api.use('/projects', projectsRouter(ctx));
   api.use('/projects/:projectId', archiveRouter(ctx));
+  api.use('/projects/:projectId/images', imagesRouter(ctx));
   api.use('/admin', adminRouter(ctx));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -5,8 +5,11 @@ import type { AppContext } from './app-context';
 import { createApp } from './app';
 import { loadConfig, type Config } from './config';
 import { createDataSource } from './database/data-source';
+import { JobQueue } from './jobs/queue';
+import { startDerivativesWorker } from './jobs/worker';
 import { startFakeSmtp } from './mail/fake-smtp';
 import { Mailer } from './mail/mailer';
+import { createFileStore } from './storage/create-file-store';
 
 export interface RunningServer {
   ctx: AppContext;
@@ -23,7 +26,11 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
 
   const smtp = config.smtp.fake ? await startFakeSmtp(config.smtp.host, config.smtp.port, config.storageDir) : null;
   const mailer = new Mailer(config.smtp, logger);
-  const ctx: AppContext = { config, dataSource, mailer, logger };
+  const files = createFileStore(config);
+  const jobs = await JobQueue.start(config, logger);
+  const ctx: AppContext = { config, dataSource, mailer, logger, files, jobs };
+  // EF_WORKER=false leaves the derivatives to `npm run worker` processes elsewhere.
+  if (config.worker) await startDerivativesWorker({ dataSource, files, config, logger }, jobs);
   const server = createApp(ctx).listen(config.port, config.host);
   await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
   logger.info(`Etchfile is serving on http://${config.host}:${config.port}`);
@@ -37,6 +44,7 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
       server.closeAllConnections();
       await closed;
       mailer.close();
+      await jobs.stop();
       await smtp?.close();
       await dataSource.destroy();
     },

@@ -37,7 +37,17 @@ export type ApiErrorCode =
   | 'token_invalid'
   | 'too_many_requests'
   | 'database_unavailable'
-  | 'internal_error';
+  | 'internal_error'
+  // Image upload and processing
+  | 'unsupported_format'
+  | 'image_corrupt'
+  | 'image_too_large'
+  | 'file_too_large'
+  | 'empty_file'
+  | 'invalid_file_name'
+  | 'duplicate_image'
+  | 'upload_incomplete'
+  | 'image_not_ready';
 
 /** Narrows an unknown value (e.g. an HttpErrorResponse body) to the shape above. */
 export function isApiErrorBody(value: unknown): value is ApiErrorBody {

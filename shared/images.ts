@@ -241,3 +241,17 @@ export const imageParams = z.strictObject({
   projectId: z.uuid({ error: 'Not a valid project id.' }),
   imageId: z.uuid({ error: 'Not a valid image id.' }),
 });
+
+/** A Deep Zoom tile: `/tiles/{level}/{col}_{row}.jpg`. Nothing else under tiles/ can be named. */
+export const tileParams = imageParams.extend({
+  level: z.coerce.number().int().min(0).max(40),
+  tile: z.string().regex(/^\d{1,6}_\d{1,6}\.jpg$/, { error: 'A tile is named {column}_{row}.jpg.' }),
+});
+
+/** IIIF Image API request parts; what they may ask for is checked against the tile set. */
+export const iiifParams = imageParams.extend({
+  region: z.string().max(80),
+  size: z.string().max(40),
+  rotation: z.string().max(10),
+  quality: z.string().max(20),
+});

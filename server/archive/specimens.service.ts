@@ -91,15 +91,10 @@ export class SpecimensService {
     });
   }
 
-  /**
-   * Images per location id and per `specimen:<id>`. Until the images table exists
-   * (a later migration) every count is zero.
-   */
+  /** Images per location id and per `specimen:<id>`. */
   private async imageCounts(specimenIds: string[]): Promise<Map<string, number>> {
     const counts = new Map<string, number>();
     if (specimenIds.length === 0) return counts;
-    const [{ present }] = await this.ds.query(`SELECT to_regclass('public.images') IS NOT NULL AS present`);
-    if (!present) return counts;
     const rows: { specimen_id: string; location_id: string | null; n: number }[] = await this.ds.query(
       'SELECT specimen_id, location_id, count(*)::int AS n FROM images WHERE specimen_id = ANY($1) GROUP BY specimen_id, location_id',
       [specimenIds],

@@ -6,6 +6,7 @@ import { SpecimenLocation } from '../archive/specimen-location.entity';
 import { Specimen } from '../archive/specimen.entity';
 import { PasswordToken } from '../auth/password-token.entity';
 import { User } from '../auth/user.entity';
+import { Image } from '../images/image.entity';
 import { ProjectMembership } from '../projects/project-membership.entity';
 import { Project } from '../projects/project.entity';
 
@@ -24,4 +25,5 @@ export const ENTITIES = [
   RouteStep,
   Specimen,
   SpecimenLocation,
+  Image,
 ];

@@ -66,6 +66,10 @@ export class LocalFileStore implements FileStore {
     return keys.length;
   }
 
+  pathOnDisk(key: string): string {
+    return this.pathOf(key);
+  }
+
   private pathOf(key: string): string {
     assertSafeKey(key);
     return path.join(this.root, ...key.split('/'));

@@ -48,6 +48,12 @@ export class ApiClient {
     return res;
   }
 
+  /** The cookie and CSRF headers this client sends, for requests made without it (multipart uploads, raw sockets). */
+  async authHeaders(): Promise<Record<string, string>> {
+    if (!this.csrfToken) await this.loadSession();
+    return { [CSRF_HEADER]: this.csrfToken, ...(this.cookie ? { cookie: this.cookie } : {}) };
+  }
+
   /** Sends any body as-is (raw strings for malformed JSON tests) with the given headers. */
   async raw(method: string, path: string, body: string, headers: Record<string, string>): Promise<ApiResponse> {
     if (!this.csrfToken) await this.loadSession();
