@@ -7,6 +7,7 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
 import { Router, RouterLink } from '@angular/router';
 import type { ProjectDetail, ProjectStatus } from '../../../shared/projects';
+import { ProjectArchive } from '../archive/project-archive';
 import { apiErrorMessage } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
@@ -18,7 +19,7 @@ import { RolePermissions } from './role-permissions';
 /** One project: what it is, who is in it, and what the viewer may do there. */
 @Component({
   selector: 'ef-project-page',
-  imports: [DatePipe, MatButton, MatIcon, MatProgressBar, ProjectMembers, RolePermissions, RouterLink],
+  imports: [DatePipe, MatButton, MatIcon, MatProgressBar, ProjectArchive, ProjectMembers, RolePermissions, RouterLink],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './project-page.html',
   styleUrl: './project-page.scss',
