@@ -2,9 +2,11 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { adminRouter } from './admin/admin.routes';
+import { annotationsRouter } from './annotations/annotations.routes';
 import { archiveRouter } from './archive/archive.routes';
 import type { AppContext } from './app-context';
 import { authRouter } from './auth/auth.routes';
+import { calibrationRouter } from './calibration/calibration.routes';
 import { createPassport } from './auth/passport-setup';
 import { healthRouter } from './health/health.routes';
 import { imagesRouter } from './images/images.routes';
@@ -35,6 +37,9 @@ export function createApp(ctx: AppContext): Express {
   api.use('/auth', authRouter(ctx, passport));
   api.use('/projects', projectsRouter(ctx));
   api.use('/projects/:projectId', archiveRouter(ctx));
+  // Before the images router, whose '/:imageId' routes would otherwise see '/:imageId/annotations' first.
+  api.use('/projects/:projectId', annotationsRouter(ctx));
+  api.use('/projects/:projectId', calibrationRouter(ctx));
   api.use('/projects/:projectId/images', imagesRouter(ctx));
   api.use('/admin', adminRouter(ctx));
   api.use(apiNotFound);

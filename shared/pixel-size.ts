@@ -3,14 +3,19 @@
  * Pure functions, shared by the server's ingest and the client's metadata form.
  */
 
-/** Where an image's pixel size came from; `user` means a person typed or confirmed it. */
-export const PIXEL_SIZE_SOURCES = ['ome_xml', 'tiff_resolution', 'user', 'none'] as const;
+/**
+ * Where an image's pixel size came from; `user` means a person typed or confirmed it,
+ * `drawn` a line drawn along a micrometer or scale bar, `preset` a saved instrument set-up.
+ */
+export const PIXEL_SIZE_SOURCES = ['ome_xml', 'tiff_resolution', 'user', 'drawn', 'preset', 'none'] as const;
 export type PixelSizeSource = (typeof PIXEL_SIZE_SOURCES)[number];
 
 export const PIXEL_SIZE_SOURCE_LABELS: Record<PixelSizeSource, string> = {
   ome_xml: 'OME-XML in the file',
   tiff_resolution: 'TIFF resolution tags',
   user: 'entered by a person',
+  drawn: 'drawn along a scale on the image',
+  preset: 'a saved instrument set-up',
   none: 'unknown (uncalibrated)',
 };
 

@@ -1,9 +1,13 @@
+import { AnnotationClass } from '../annotations/annotation-class.entity';
+import { Annotation } from '../annotations/annotation.entity';
 import { Material } from '../archive/material.entity';
 import { RouteStep } from '../archive/route-step.entity';
 import { SampleLayer } from '../archive/sample-layer.entity';
 import { Sample } from '../archive/sample.entity';
 import { SpecimenLocation } from '../archive/specimen-location.entity';
 import { Specimen } from '../archive/specimen.entity';
+import { CalibrationChange } from '../calibration/calibration-change.entity';
+import { CalibrationPreset } from '../calibration/calibration-preset.entity';
 import { PasswordToken } from '../auth/password-token.entity';
 import { User } from '../auth/user.entity';
 import { Image } from '../images/image.entity';
@@ -26,4 +30,8 @@ export const ENTITIES = [
   Specimen,
   SpecimenLocation,
   Image,
+  AnnotationClass,
+  Annotation,
+  CalibrationPreset,
+  CalibrationChange,
 ];

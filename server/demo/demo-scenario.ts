@@ -1,6 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { Logger } from 'pino';
 import type { ProjectRole, SiteRole } from '../../shared/roles';
+import { addDefaultAnnotationClasses } from '../annotations/default-classes';
 import { hashPassword } from '../auth/password-hash';
 import { User } from '../auth/user.entity';
 import { ProjectMembership } from '../projects/project-membership.entity';
@@ -69,6 +70,7 @@ export async function loadDemoScenarioOnce(ds: DataSource, logger: Logger): Prom
       if (await m.existsBy(Project, { code: fields.code })) continue;
       const project = await m.save(m.create(Project, fields));
       for (const [who, role] of members) await m.insert(ProjectMembership, { projectId: project.id, userId: ids.get(who)!, role });
+      await addDefaultAnnotationClasses(m, project.id);
       if (project.code === 'KV-LAM-24') await loadDemoArchive(m, project.id);
     }
     await m.query('INSERT INTO app_state (key, value) VALUES ($1, $2)', [MARKER, JSON.stringify({ loadedAt: new Date().toISOString() })]);

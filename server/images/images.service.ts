@@ -3,6 +3,7 @@ import type { AppContext } from '../app-context';
 import { SpecimenLocation } from '../archive/specimen-location.entity';
 import { Specimen } from '../archive/specimen.entity';
 import { User } from '../auth/user.entity';
+import { CalibrationChange } from '../calibration/calibration-change.entity';
 import { AppError } from '../http/app-error';
 import { Image } from './image.entity';
 import { imageKeys } from './image-keys';
@@ -52,6 +53,10 @@ export class ImagesService {
     const byWhom = `${editor?.displayName ?? 'a member'} on ${new Date().toISOString().slice(0, 10)}`;
     if (pixelSizeUm !== undefined) {
       Object.assign(changes, { pixelSizeUm, pixelSizeYUm: pixelSizeYUm ?? pixelSizeUm, pixelSizeSource: 'user', pixelSizeConfirmed: true, pixelSizeNote: `Entered by ${byWhom}.` });
+      // Every pixel-size change is on record (who, when, old, new), whichever path made it.
+      await this.ds.getRepository(CalibrationChange).insert({
+        imageId, userId: editorId, oldUmPerPx: image.pixelSizeUm, newUmPerPx: pixelSizeUm, source: 'user', note: `Entered by ${byWhom}.`,
+      });
     }
     if (confirmPixelSize) {
       if (image.pixelSizeUm === null) {

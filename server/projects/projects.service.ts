@@ -11,6 +11,7 @@ import type {
 } from '../../shared/projects';
 import type { ProjectRole } from '../../shared/roles';
 import type { AppContext } from '../app-context';
+import { addDefaultAnnotationClasses } from '../annotations/default-classes';
 import { User } from '../auth/user.entity';
 import { AppError } from '../http/app-error';
 import { ProjectMembership } from './project-membership.entity';
@@ -57,7 +58,7 @@ export class ProjectsService {
     return { items, total, page: query.page, pageSize: query.pageSize };
   }
 
-  /** The creator becomes the project's first lead. */
+  /** The creator becomes the project's first lead; the project starts with the usual annotation classes. */
   async create(user: Express.User, body: CreateProjectBody): Promise<ProjectDetail> {
     const id = await this.ds.transaction(async (m) => {
       if (await m.existsBy(Project, { code: body.code })) {
@@ -67,6 +68,7 @@ export class ProjectsService {
       }
       const project = await m.save(m.create(Project, body));
       await m.insert(ProjectMembership, { projectId: project.id, userId: user.id, role: 'lead' });
+      await addDefaultAnnotationClasses(m, project.id);
       return project.id;
     });
     return this.detail(user, id, 'lead');

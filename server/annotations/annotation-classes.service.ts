@@ -1,0 +1,82 @@
+import type { EntityManager } from 'typeorm';
+import { KINDS_FOR_SHAPE, type AnnotationClass as AnnotationClassDto, type AnnotationClassBody } from '../../shared/annotations/annotations';
+import type { AppContext } from '../app-context';
+import { AppError } from '../http/app-error';
+import { AnnotationClass } from './annotation-class.entity';
+import { Annotation } from './annotation.entity';
+import { toAnnotationClassDto } from './annotation.mapper';
+
+/** A project's annotation classes. A class in use is deleted only by moving its shapes to another class. */
+export class AnnotationClassesService {
+  constructor(private readonly ctx: AppContext) {}
+
+  async list(projectId: string): Promise<AnnotationClassDto[]> {
+    const { entities, raw } = await this.ctx.dataSource
+      .getRepository(AnnotationClass)
+      .createQueryBuilder('c')
+      .addSelect('(SELECT count(*) FROM annotations a WHERE a.class_id = c.id)::int', 'usage')
+      .where('c.project_id = :projectId', { projectId })
+      .orderBy('c.position', 'ASC')
+      .addOrderBy('c.name', 'ASC')
+      .getRawAndEntities();
+    return entities.map((c, i) => toAnnotationClassDto(c, Number(raw[i].usage)));
+  }
+
+  async create(projectId: string, body: AnnotationClassBody): Promise<AnnotationClassDto> {
+    return this.ctx.dataSource.transaction(async (m) => {
+      await this.refuseTakenName(m, projectId, body.name);
+      const position = (await m.countBy(AnnotationClass, { projectId })) + 1;
+      return toAnnotationClassDto(await m.save(m.create(AnnotationClass, { ...body, projectId, position })), 0);
+    });
+  }
+
+  async update(projectId: string, classId: string, body: AnnotationClassBody): Promise<AnnotationClassDto> {
+    return this.ctx.dataSource.transaction(async (m) => {
+      const cls = await this.find(m, projectId, classId);
+      if (body.name !== cls.name) await this.refuseTakenName(m, projectId, body.name);
+      if (body.shapeKind !== cls.shapeKind) {
+        const misfits = await m
+          .createQueryBuilder(Annotation, 'a')
+          .where('a.class_id = :classId AND NOT (a.kind = ANY(:kinds))', { classId, kinds: [...KINDS_FOR_SHAPE[body.shapeKind]] })
+          .getCount();
+        if (misfits > 0) throw AppError.conflict(`${misfits} shape${misfits > 1 ? 's' : ''} of this class would not fit the new kind; change or move them first.`);
+      }
+      const saved = await m.save(Object.assign(cls, body));
+      return toAnnotationClassDto(saved, await m.countBy(Annotation, { classId }));
+    });
+  }
+
+  /** Refuses while shapes use the class, unless `moveTo` names the class that takes them over. */
+  async remove(projectId: string, classId: string, moveTo: string | undefined): Promise<void> {
+    await this.ctx.dataSource.transaction(async (m) => {
+      const cls = await this.find(m, projectId, classId);
+      const usage = await m.countBy(Annotation, { classId });
+      if (usage > 0 && !moveTo) {
+        throw AppError.conflict(`${usage} shape${usage > 1 ? 's use' : ' uses'} “${cls.name}”. Choose a class to move ${usage > 1 ? 'them' : 'it'} to, or delete the shapes first.`);
+      }
+      if (usage > 0 && moveTo) {
+        if (moveTo === classId) throw AppError.conflict('Choose a different class to move the shapes to.');
+        const target = await this.find(m, projectId, moveTo);
+        const misfits = await m
+          .createQueryBuilder(Annotation, 'a')
+          .where('a.class_id = :classId AND NOT (a.kind = ANY(:kinds))', { classId, kinds: [...KINDS_FOR_SHAPE[target.shapeKind]] })
+          .getCount();
+        if (misfits > 0) throw AppError.conflict(`${misfits} shape${misfits > 1 ? 's' : ''} would not fit “${target.name}” (${target.shapeKind}); choose another class.`);
+        await m.update(Annotation, { classId }, { classId: target.id, version: () => 'version + 1' });
+      }
+      await m.delete(AnnotationClass, { id: classId });
+    });
+  }
+
+  private async find(m: EntityManager, projectId: string, classId: string): Promise<AnnotationClass> {
+    const cls = await m.findOneBy(AnnotationClass, { id: classId, projectId });
+    if (!cls) throw AppError.notFound('The annotation class');
+    return cls;
+  }
+
+  private async refuseTakenName(m: EntityManager, projectId: string, name: string): Promise<void> {
+    if (await m.existsBy(AnnotationClass, { projectId, name })) {
+      throw new AppError(409, 'conflict', `This project already has a class “${name}”.`, [{ field: 'body.name', message: 'This name is taken.' }]);
+    }
+  }
+}
