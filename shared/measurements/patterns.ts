@@ -1,0 +1,85 @@
+import type { Point } from '../annotations/geometry';
+
+/**
+ * E112 test patterns laid over an image, in full-resolution image pixels. Sizes are given
+ * in µm on the specimen and turned into pixels with the image's pixel size.
+ */
+export type PatternSpec =
+  | { type: 'lines'; direction: 'horizontal' | 'vertical' | 'both' | 'angle'; angleDeg?: number; spacingUm: number; count: number; marginUm?: number }
+  | { type: 'circle'; diameterUm: number; centre?: Point }
+  | { type: 'three_circles'; largestDiameterUm: number; centre?: Point };
+
+/** A test line: a straight segment or a circle (approximated by `segments` for drawing and clipping). */
+export type TestLine =
+  | { kind: 'segment'; a: Point; b: Point; family: 'horizontal' | 'vertical' | 'angle' }
+  | { kind: 'circle'; centre: Point; radius: number };
+
+export const THREE_CIRCLE_RATIOS = [1, 2 / 3, 1 / 3] as const; // diameters 3 : 2 : 1 (E112 three-circle pattern)
+
+/** The test lines of a pattern over a `width` × `height` image at `umPerPx`. */
+export function patternLines(spec: PatternSpec, width: number, height: number, umPerPx: number): TestLine[] {
+  const centre: Point = [width / 2, height / 2];
+  if (spec.type === 'circle') return [{ kind: 'circle', centre: spec.centre ?? centre, radius: spec.diameterUm / umPerPx / 2 }];
+  if (spec.type === 'three_circles') {
+    return THREE_CIRCLE_RATIOS.map((r) => ({ kind: 'circle' as const, centre: spec.centre ?? centre, radius: (spec.largestDiameterUm * r) / umPerPx / 2 }));
+  }
+  const spacing = spec.spacingUm / umPerPx;
+  const margin = (spec.marginUm ?? 0) / umPerPx;
+  const lines: TestLine[] = [];
+  const family = (dir: 'horizontal' | 'vertical') => {
+    const across = dir === 'horizontal' ? height : width;
+    const first = across / 2 - ((spec.count - 1) * spacing) / 2;
+    for (let i = 0; i < spec.count; i++) {
+      const c = first + i * spacing;
+      if (c < 0 || c > across) continue;
+      lines.push(
+        dir === 'horizontal'
+          ? { kind: 'segment', a: [margin, c], b: [width - margin, c], family: 'horizontal' }
+          : { kind: 'segment', a: [c, margin], b: [c, height - margin], family: 'vertical' },
+      );
+    }
+  };
+  if (spec.direction === 'horizontal' || spec.direction === 'both') family('horizontal');
+  if (spec.direction === 'vertical' || spec.direction === 'both') family('vertical');
+  if (spec.direction === 'angle') {
+    const theta = ((spec.angleDeg ?? 45) * Math.PI) / 180;
+    const [dx, dy] = [Math.cos(theta), Math.sin(theta)];
+    const [nx, ny] = [-dy, dx];
+    const half = Math.hypot(width, height) / 2;
+    for (let i = 0; i < spec.count; i++) {
+      const off = (i - (spec.count - 1) / 2) * spacing;
+      const mid: Point = [centre[0] + nx * off, centre[1] + ny * off];
+      const clipped = clipToRect([mid[0] - dx * half, mid[1] - dy * half], [mid[0] + dx * half, mid[1] + dy * half], width, height);
+      if (clipped) lines.push({ kind: 'segment', a: clipped[0], b: clipped[1], family: 'angle' });
+    }
+  }
+  return lines;
+}
+
+/** Circle as a closed polyline of `n` points (for clipping against bands and regions). */
+export function circlePoints(centre: Point, radius: number, n = 720): Point[] {
+  return Array.from({ length: n + 1 }, (_, i) => [centre[0] + radius * Math.cos((2 * Math.PI * i) / n), centre[1] + radius * Math.sin((2 * Math.PI * i) / n)] as const);
+}
+
+/** Liang-Barsky clipping of a segment to the image rectangle; null when it misses. */
+export function clipToRect(a: Point, b: Point, width: number, height: number): [Point, Point] | null {
+  let [t0, t1] = [0, 1];
+  const [dx, dy] = [b[0] - a[0], b[1] - a[1]];
+  const edges: [number, number][] = [[-dx, a[0]], [dx, width - a[0]], [-dy, a[1]], [dy, height - a[1]]];
+  for (const [p, q] of edges) {
+    if (p === 0) {
+      if (q < 0) return null;
+      continue;
+    }
+    const r = q / p;
+    if (p < 0) t0 = Math.max(t0, r);
+    else t1 = Math.min(t1, r);
+    if (t0 > t1) return null;
+  }
+  return [[a[0] + t0 * dx, a[1] + t0 * dy], [a[0] + t1 * dx, a[1] + t1 * dy]];
+}
+
+/** Spacing that puts `count` lines across the image with equal gaps (for "reach a target count"). */
+export function spacingForCount(count: number, acrossPx: number, umPerPx: number): number {
+  return (acrossPx / (count + 1)) * umPerPx;
+}
