@@ -49,7 +49,7 @@ export class ImageFilesController {
   iiifInfo: RequestHandler = async (req, res) => {
     const image = await this.ready(req);
     // The id is where this request came from, so the service works behind any host name.
-    const id = `${req.protocol}://${req.get('host')}${req.baseUrl}/images/${image.id}/iiif`;
+    const id = `${req.protocol}://${req.get('host')}${req.baseUrl}/${image.id}/iiif`;
     res.setHeader('Cache-Control', 'private, max-age=3600');
     // IIIF Image API 3.0, §5: info.json with the JSON-LD media type and the profile link.
     res.type('application/ld+json; profile="http://iiif.io/api/image/3/context.json"').send(JSON.stringify(iiifInfo(id, image.width, image.height)));
@@ -82,7 +82,7 @@ export class ImageFilesController {
   private async send(req: Request, res: Response, key: string, type: string, etag: string): Promise<void> {
     res.setHeader('ETag', etag);
     res.setHeader('Cache-Control', IMMUTABLE);
-    if (req.fresh) {
+    if (matchesEtag(req.get('if-none-match'), etag)) {
       res.status(304).end();
       return;
     }
@@ -97,6 +97,13 @@ export class ImageFilesController {
       // The client went away mid-download; there is nobody left to answer.
     }
   }
+}
+
+/** RFC 9110 §13.1.2: If-None-Match lists entity tags (weak comparison) or is "*". */
+function matchesEtag(header: string | undefined, etag: string): boolean {
+  if (!header) return false;
+  const bare = (t: string) => t.trim().replace(/^W\//, '');
+  return header.trim() === '*' || header.split(',').some((t) => bare(t) === bare(etag));
 }
 
 function derivedTag(image: Image, what: string): string {

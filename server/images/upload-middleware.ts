@@ -24,6 +24,8 @@ export function receiveOneFile(ctx: AppContext): RequestHandler {
     storage,
     // Keep the name as sent: a name with folders in it is refused, not silently shortened.
     preservePath: true,
+    // Browsers send file names as UTF-8; busboy would read them as Latin-1 otherwise.
+    defParamCharset: 'utf8',
     limits: { fileSize: ctx.config.images.uploadMaxBytes, files: 1, fields: 30, fieldSize: 10_000, parts: 32 },
   }).single(FILE_FIELD);
   const limitText = formatBytes(ctx.config.images.uploadMaxBytes);

@@ -5,7 +5,10 @@ set -euo pipefail
 cd "$(dirname "$0")/../.."
 
 want_browser=false
+want_vips=false
 [ "${1:-}" = "--test" ] && want_browser=true
+# The benchmark compares our tiler with Debian's `vips dzsave`.
+[ "${1:-}" = "--bench" ] && want_vips=true
 
 if [ ! -d node_modules ]; then
   echo "etchfile: installing npm dependencies (first run)…"
@@ -27,4 +30,5 @@ apt_install() {
 
 if ! compgen -G "/usr/lib/postgresql/*/bin/initdb" >/dev/null; then apt_install postgresql; fi
 if $want_browser && ! command -v chromium >/dev/null; then apt_install chromium; fi
+if $want_vips && ! command -v vips >/dev/null; then apt_install libvips-tools; fi
 exit 0
