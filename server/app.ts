@@ -1,6 +1,7 @@
 import path from 'node:path';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
+import { activityRouter } from './activity/activity.routes';
 import { adminRouter } from './admin/admin.routes';
 import { annotationsRouter } from './annotations/annotations.routes';
 import { archiveRouter } from './archive/archive.routes';
@@ -10,6 +11,7 @@ import { calibrationRouter } from './calibration/calibration.routes';
 import { createPassport } from './auth/passport-setup';
 import { healthRouter } from './health/health.routes';
 import { imagesRouter } from './images/images.routes';
+import { measurementsRouter } from './measurements/measurements.routes';
 import { requireCsrfToken } from './http/csrf';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { requestLogger } from './http/request-logger';
@@ -40,6 +42,8 @@ export function createApp(ctx: AppContext): Express {
   // Before the images router, whose '/:imageId' routes would otherwise see '/:imageId/annotations' first.
   api.use('/projects/:projectId', annotationsRouter(ctx));
   api.use('/projects/:projectId', calibrationRouter(ctx));
+  api.use('/projects/:projectId', measurementsRouter(ctx));
+  api.use('/projects/:projectId', activityRouter(ctx));
   api.use('/projects/:projectId/images', imagesRouter(ctx));
   api.use('/admin', adminRouter(ctx));
   api.use(apiNotFound);

@@ -1,6 +1,7 @@
 import { fromFeatureCollection, toFeature, type FeatureCollection } from '../../shared/annotations/geojson';
 import type { FieldProblem } from '../../shared/api-error';
 import type { AppContext } from '../app-context';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { AnnotationClass } from './annotation-class.entity';
 import { Annotation } from './annotation.entity';
@@ -53,6 +54,7 @@ export class AnnotationsGeoJsonService {
       }
       if (details.length > 0) throw new AppError(422, 'validation_failed', `Nothing was imported: ${details[0]!.message}${details.length > 1 ? ` (and ${details.length - 1} more)` : ''}`, details);
       if (rows.length > 0) await m.insert(Annotation, rows);
+      await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotations.imported', summary: `imported ${rows.length} shape${rows.length === 1 ? '' : 's'} from GeoJSON` });
       return { imported: rows.length };
     });
   }

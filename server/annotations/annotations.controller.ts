@@ -46,7 +46,7 @@ export class AnnotationsController {
   };
   remove: RequestHandler = async (req, res) => {
     const { version } = req.query as unknown as { version: number };
-    await this.annotations.remove(p(req, 'projectId'), p(req, 'imageId'), p(req, 'annotationId'), version);
+    await this.annotations.remove(currentUser(req), p(req, 'projectId'), p(req, 'imageId'), p(req, 'annotationId'), version);
     res.status(204).end();
   };
 

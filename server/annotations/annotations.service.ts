@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { KINDS_FOR_SHAPE, type Annotation as AnnotationDto, type AnnotationBody, type UpdateAnnotationBody } from '../../shared/annotations/annotations';
 import { shapeProblem } from '../../shared/annotations/shape-rules';
 import type { AppContext } from '../app-context';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { Image } from '../images/image.entity';
 import { AnnotationClass } from './annotation-class.entity';
@@ -23,6 +24,7 @@ export class AnnotationsService {
       const image = await this.image(m, projectId, imageId);
       await this.check(m, projectId, image, body);
       const saved = await m.save(m.create(Annotation, { ...body, projectId, imageId, authorId: user.id, updatedBy: user.id }));
+      await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotation.created', summary: `drew a ${body.kind}`, details: { annotationId: saved.id } });
       return this.reload(m, saved.id);
     });
   }
@@ -40,16 +42,18 @@ export class AnnotationsService {
         .where('id = :id AND version = :version', { id: annotationId, version })
         .execute();
       if (result.affected !== 1) await this.conflict(m, current, version);
+      await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotation.updated', summary: `changed a ${current.kind}`, details: { annotationId, version: version + 1 } });
       return this.reload(m, annotationId);
     });
   }
 
-  async remove(projectId: string, imageId: string, annotationId: string, version: number): Promise<void> {
+  async remove(user: Express.User, projectId: string, imageId: string, annotationId: string, version: number): Promise<void> {
     await this.ctx.dataSource.transaction(async (m) => {
       await this.image(m, projectId, imageId);
       const current = await this.find(m, imageId, annotationId);
       const result = await m.delete(Annotation, { id: annotationId, version });
       if (result.affected !== 1) await this.conflict(m, current, version);
+      await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotation.deleted', summary: `deleted a ${current.kind}`, details: { annotationId, points: current.points } });
     });
   }
 

@@ -3,6 +3,7 @@ import type { CreateMaterialBody, UpdateMaterialBody } from '../../shared/archiv
 import type { CreateSampleBody, UpdateSampleBody } from '../../shared/archive/samples';
 import type { CreateSpecimenBody, LocationBody, UpdateSpecimenBody } from '../../shared/archive/specimens';
 import type { AppContext } from '../app-context';
+import { currentUser } from '../http/require-auth';
 import { MaterialsService } from './materials.service';
 import { SamplesService } from './samples.service';
 import { SpecimensService } from './specimens.service';
@@ -25,13 +26,13 @@ export class ArchiveController {
     res.json(await this.materials.list(param(req, 'projectId')));
   };
   createMaterial: RequestHandler = async (req, res) => {
-    res.status(201).json(await this.materials.create(param(req, 'projectId'), req.body as CreateMaterialBody));
+    res.status(201).json(await this.materials.create(currentUser(req), param(req, 'projectId'), req.body as CreateMaterialBody));
   };
   updateMaterial: RequestHandler = async (req, res) => {
-    res.json(await this.materials.update(param(req, 'projectId'), param(req, 'materialId'), req.body as UpdateMaterialBody));
+    res.json(await this.materials.update(currentUser(req), param(req, 'projectId'), param(req, 'materialId'), req.body as UpdateMaterialBody));
   };
   deleteMaterial: RequestHandler = async (req, res) => {
-    await this.materials.remove(param(req, 'projectId'), param(req, 'materialId'));
+    await this.materials.remove(currentUser(req), param(req, 'projectId'), param(req, 'materialId'));
     res.status(204).end();
   };
 
@@ -42,13 +43,13 @@ export class ArchiveController {
     res.json(await this.samples.detail(param(req, 'projectId'), param(req, 'sampleId')));
   };
   createSample: RequestHandler = async (req, res) => {
-    res.status(201).json(await this.samples.create(param(req, 'projectId'), req.body as CreateSampleBody));
+    res.status(201).json(await this.samples.create(currentUser(req), param(req, 'projectId'), req.body as CreateSampleBody));
   };
   updateSample: RequestHandler = async (req, res) => {
-    res.json(await this.samples.update(param(req, 'projectId'), param(req, 'sampleId'), req.body as UpdateSampleBody));
+    res.json(await this.samples.update(currentUser(req), param(req, 'projectId'), param(req, 'sampleId'), req.body as UpdateSampleBody));
   };
   deleteSample: RequestHandler = async (req, res) => {
-    await this.samples.remove(param(req, 'projectId'), param(req, 'sampleId'));
+    await this.samples.remove(currentUser(req), param(req, 'projectId'), param(req, 'sampleId'));
     res.status(204).end();
   };
 
@@ -60,26 +61,26 @@ export class ArchiveController {
     res.json(await this.specimens.detail(param(req, 'projectId'), param(req, 'specimenId')));
   };
   createSpecimen: RequestHandler = async (req, res) => {
-    res.status(201).json(await this.specimens.create(param(req, 'projectId'), req.body as CreateSpecimenBody));
+    res.status(201).json(await this.specimens.create(currentUser(req), param(req, 'projectId'), req.body as CreateSpecimenBody));
   };
   updateSpecimen: RequestHandler = async (req, res) => {
-    res.json(await this.specimens.update(param(req, 'projectId'), param(req, 'specimenId'), req.body as UpdateSpecimenBody));
+    res.json(await this.specimens.update(currentUser(req), param(req, 'projectId'), param(req, 'specimenId'), req.body as UpdateSpecimenBody));
   };
   deleteSpecimen: RequestHandler = async (req, res) => {
-    await this.specimens.remove(param(req, 'projectId'), param(req, 'specimenId'));
+    await this.specimens.remove(currentUser(req), param(req, 'projectId'), param(req, 'specimenId'));
     res.status(204).end();
   };
 
   addLocation: RequestHandler = async (req, res) => {
-    res.status(201).json(await this.specimens.addLocation(param(req, 'projectId'), param(req, 'specimenId'), req.body as LocationBody));
+    res.status(201).json(await this.specimens.addLocation(currentUser(req), param(req, 'projectId'), param(req, 'specimenId'), req.body as LocationBody));
   };
   updateLocation: RequestHandler = async (req, res) => {
     const [p, s, l] = ['projectId', 'specimenId', 'locationId'].map((n) => param(req, n)) as [string, string, string];
-    res.json(await this.specimens.updateLocation(p, s, l, req.body as LocationBody));
+    res.json(await this.specimens.updateLocation(currentUser(req), p, s, l, req.body as LocationBody));
   };
   deleteLocation: RequestHandler = async (req, res) => {
     const [p, s, l] = ['projectId', 'specimenId', 'locationId'].map((n) => param(req, n)) as [string, string, string];
-    await this.specimens.removeLocation(p, s, l);
+    await this.specimens.removeLocation(currentUser(req), p, s, l);
     res.status(204).end();
   };
 }

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { CreateMaterialBody, Material as MaterialDto, UpdateMaterialBody } from '../../shared/archive/materials';
 import type { AppContext } from '../app-context';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { Material } from './material.entity';
 import { toMaterialDto } from './material.mapper';
@@ -20,25 +21,27 @@ export class MaterialsService {
     return entities.map((m, i) => toMaterialDto(m, Number(raw[i].used)));
   }
 
-  async create(projectId: string, body: CreateMaterialBody): Promise<MaterialDto> {
+  async create(actor: Express.User, projectId: string, body: CreateMaterialBody): Promise<MaterialDto> {
     return this.ctx.dataSource.transaction(async (m) => {
       await this.refuseTakenDesignation(m, projectId, body.designation);
       const saved = await m.save(m.create(Material, { ...body, projectId }));
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.created', summary: `added the material ${saved.designation}` });
       return toMaterialDto(saved, 0);
     });
   }
 
-  async update(projectId: string, materialId: string, body: UpdateMaterialBody): Promise<MaterialDto> {
+  async update(actor: Express.User, projectId: string, materialId: string, body: UpdateMaterialBody): Promise<MaterialDto> {
     return this.ctx.dataSource.transaction(async (m) => {
       const material = await this.find(m, projectId, materialId);
       if (body.designation && body.designation !== material.designation) await this.refuseTakenDesignation(m, projectId, body.designation);
       Object.assign(material, body);
       const saved = await m.save(material);
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.updated', summary: `edited the material ${saved.designation}` });
       return toMaterialDto(saved, await this.usage(m, materialId));
     });
   }
 
-  async remove(projectId: string, materialId: string): Promise<void> {
+  async remove(actor: Express.User, projectId: string, materialId: string): Promise<void> {
     await this.ctx.dataSource.transaction(async (m) => {
       const material = await this.find(m, projectId, materialId);
       const used = await this.usage(m, materialId);
@@ -46,6 +49,7 @@ export class MaterialsService {
         throw AppError.conflict(`${material.designation} is part of the stack of ${used} sample${used > 1 ? 's' : ''}; change those stacks first.`);
       }
       await m.delete(Material, { id: materialId });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.deleted', summary: `deleted the material ${material.designation}` });
     });
   }
 

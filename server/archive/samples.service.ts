@@ -1,6 +1,7 @@
 import { In, type EntityManager } from 'typeorm';
 import type { CreateSampleBody, SampleDetail, SampleSummary, UpdateSampleBody } from '../../shared/archive/samples';
 import type { AppContext } from '../app-context';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { Material } from './material.entity';
 import { RouteStep } from './route-step.entity';
@@ -34,18 +35,19 @@ export class SamplesService {
     return this.detailWith(this.ctx.dataSource.manager, projectId, sampleId);
   }
 
-  async create(projectId: string, body: CreateSampleBody): Promise<SampleDetail> {
+  async create(actor: Express.User, projectId: string, body: CreateSampleBody): Promise<SampleDetail> {
     return this.ctx.dataSource.transaction(async (m) => {
       await this.refuseTakenCode(m, projectId, body.code);
       await this.checkMaterials(m, projectId, body.layers);
       const sample = await m.save(m.create(Sample, { projectId, code: body.code, name: body.name, description: body.description }));
       await this.writeLayers(m, sample.id, body.layers);
       await this.writeRoute(m, sample.id, body.route);
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.created', summary: `added the sample ${body.code}` });
       return this.detailWith(m, projectId, sample.id);
     });
   }
 
-  async update(projectId: string, sampleId: string, body: UpdateSampleBody): Promise<SampleDetail> {
+  async update(actor: Express.User, projectId: string, sampleId: string, body: UpdateSampleBody): Promise<SampleDetail> {
     return this.ctx.dataSource.transaction(async (m) => {
       const sample = await this.find(m, projectId, sampleId);
       if (body.code && body.code !== sample.code) await this.refuseTakenCode(m, projectId, body.code);
@@ -57,16 +59,18 @@ export class SamplesService {
       const { layers: _l, route: _r, ...fields } = body;
       // Touch updated_at even when only the stack or route changed.
       await m.update(Sample, { id: sampleId }, { ...fields, updatedAt: new Date() });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.updated', summary: `edited the sample ${body.code ?? sample.code} (${Object.keys(body).join(', ')})` });
       return this.detailWith(m, projectId, sampleId);
     });
   }
 
-  async remove(projectId: string, sampleId: string): Promise<void> {
+  async remove(actor: Express.User, projectId: string, sampleId: string): Promise<void> {
     await this.ctx.dataSource.transaction(async (m) => {
       const sample = await this.find(m, projectId, sampleId);
       const specimens = await m.countBy(Specimen, { sampleId });
       if (specimens > 0) throw AppError.conflict(`${sample.code} has ${specimens} specimen${specimens > 1 ? 's' : ''}; delete or move them first.`);
       await m.delete(Sample, { id: sampleId });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.deleted', summary: `deleted the sample ${sample.code}` });
     });
   }
 

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { CreateSpecimenBody, Location, LocationBody, Specimen as SpecimenDto, UpdateSpecimenBody } from '../../shared/archive/specimens';
 import type { AppContext } from '../app-context';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { RouteStep } from './route-step.entity';
 import { Sample } from './sample.entity';
@@ -33,61 +34,69 @@ export class SpecimensService {
     return toSpecimenDto(specimen, await this.imageCounts([specimenId]));
   }
 
-  async create(projectId: string, body: CreateSpecimenBody): Promise<SpecimenDto> {
+  async create(actor: Express.User, projectId: string, body: CreateSpecimenBody): Promise<SpecimenDto> {
     const id = await this.ds.transaction(async (m) => {
       const sample = await m.findOneBy(Sample, { id: body.sampleId, projectId });
       if (!sample) throw new AppError(422, 'validation_failed', 'Choose a sample of this project.', [{ field: 'body.sampleId', message: 'Not a sample of this project.' }]);
       await this.checkStep(m, body.sampleId, body.afterStepId);
       await this.refuseTakenCode(m, body.sampleId, body.code);
-      return (await m.save(m.create(Specimen, { ...body, projectId }))).id;
+      const saved = await m.save(m.create(Specimen, { ...body, projectId }));
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.created', summary: `added the specimen ${body.code} of ${sample.code}` });
+      return saved.id;
     });
     return this.detail(projectId, id);
   }
 
-  async update(projectId: string, specimenId: string, body: UpdateSpecimenBody): Promise<SpecimenDto> {
+  async update(actor: Express.User, projectId: string, specimenId: string, body: UpdateSpecimenBody): Promise<SpecimenDto> {
     await this.ds.transaction(async (m) => {
       const specimen = await this.find(m, projectId, specimenId);
       if (body.afterStepId !== undefined) await this.checkStep(m, specimen.sampleId, body.afterStepId);
       if (body.code && body.code !== specimen.code) await this.refuseTakenCode(m, specimen.sampleId, body.code);
       await m.update(Specimen, { id: specimenId }, { ...body, updatedAt: new Date() });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.updated', summary: `edited the specimen ${body.code ?? specimen.code}` });
     });
     return this.detail(projectId, specimenId);
   }
 
-  async remove(projectId: string, specimenId: string): Promise<void> {
+  async remove(actor: Express.User, projectId: string, specimenId: string): Promise<void> {
     await this.ds.transaction(async (m) => {
-      await this.find(m, projectId, specimenId);
+      const specimen = await this.find(m, projectId, specimenId);
       const images = (await this.imageCounts([specimenId])).get(`specimen:${specimenId}`) ?? 0;
       if (images > 0) throw AppError.conflict(`This specimen has ${images} image${images > 1 ? 's' : ''}; they must be deleted or moved first.`);
       await m.delete(Specimen, { id: specimenId });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.deleted', summary: `deleted the specimen ${specimen.code}` });
     });
   }
 
-  async addLocation(projectId: string, specimenId: string, body: LocationBody): Promise<Location> {
+  async addLocation(actor: Express.User, projectId: string, specimenId: string, body: LocationBody): Promise<Location> {
     return this.ds.transaction(async (m) => {
-      await this.find(m, projectId, specimenId);
+      const specimen = await this.find(m, projectId, specimenId);
       await this.refuseTakenLocation(m, specimenId, body.name);
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.created', summary: `added the location “${body.name}” on ${specimen.code}` });
       return toLocation(await m.save(m.create(SpecimenLocation, { ...body, specimenId })), 0);
     });
   }
 
-  async updateLocation(projectId: string, specimenId: string, locationId: string, body: LocationBody): Promise<Location> {
+  async updateLocation(actor: Express.User, projectId: string, specimenId: string, locationId: string, body: LocationBody): Promise<Location> {
     return this.ds.transaction(async (m) => {
       await this.find(m, projectId, specimenId);
       const location = await this.findLocation(m, specimenId, locationId);
       if (body.name !== location.name) await this.refuseTakenLocation(m, specimenId, body.name);
+      const before = location.name;
       const saved = await m.save(Object.assign(location, body));
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.updated', summary: `edited the location “${before}”` });
       return toLocation(saved, (await this.imageCounts([specimenId])).get(locationId) ?? 0);
     });
   }
 
-  async removeLocation(projectId: string, specimenId: string, locationId: string): Promise<void> {
+  async removeLocation(actor: Express.User, projectId: string, specimenId: string, locationId: string): Promise<void> {
     await this.ds.transaction(async (m) => {
       await this.find(m, projectId, specimenId);
       const location = await this.findLocation(m, specimenId, locationId);
       const images = (await this.imageCounts([specimenId])).get(locationId) ?? 0;
       if (images > 0) throw AppError.conflict(`${images} image${images > 1 ? 's are' : ' is'} filed at ${location.name}; move them first.`);
       await m.delete(SpecimenLocation, { id: locationId });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'catalogue.deleted', summary: `deleted the location “${location.name}”` });
     });
   }
 

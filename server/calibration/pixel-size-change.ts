@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { PixelSizeSource } from '../../shared/pixel-size';
+import { recordActivity } from '../activity/record-activity';
 import { Image } from '../images/image.entity';
 import { CalibrationChange } from './calibration-change.entity';
 
@@ -29,5 +30,14 @@ export async function changePixelSize(m: EntityManager, image: Image, userId: st
     pixelSizeConfirmed: change.source !== 'none',
     pixelSizeNote: change.note,
     updatedAt: new Date(),
+  });
+  const from = image.pixelSizeUm === null ? 'none' : `${image.pixelSizeUm} µm/px`;
+  const to = change.umPerPx === null ? 'none' : `${Number(change.umPerPx.toPrecision(6))} µm/px`;
+  await recordActivity(m, {
+    projectId: image.projectId,
+    imageId: image.id,
+    actorId: userId,
+    action: 'image.pixel_size_changed',
+    summary: `changed the pixel size from ${from} to ${to} (${change.source})`,
   });
 }

@@ -1,3 +1,4 @@
+import { ActivityEvent } from '../activity/activity-event.entity';
 import { AnnotationClass } from '../annotations/annotation-class.entity';
 import { Annotation } from '../annotations/annotation.entity';
 import { Material } from '../archive/material.entity';
@@ -11,6 +12,8 @@ import { CalibrationPreset } from '../calibration/calibration-preset.entity';
 import { PasswordToken } from '../auth/password-token.entity';
 import { User } from '../auth/user.entity';
 import { Image } from '../images/image.entity';
+import { MeasurementHistory } from '../measurements/measurement-history.entity';
+import { Measurement } from '../measurements/measurement.entity';
 import { ProjectMembership } from '../projects/project-membership.entity';
 import { Project } from '../projects/project.entity';
 
@@ -34,4 +37,7 @@ export const ENTITIES = [
   Annotation,
   CalibrationPreset,
   CalibrationChange,
+  Measurement,
+  MeasurementHistory,
+  ActivityEvent,
 ];

@@ -4,6 +4,7 @@ import { SpecimenLocation } from '../archive/specimen-location.entity';
 import { Specimen } from '../archive/specimen.entity';
 import { User } from '../auth/user.entity';
 import { CalibrationChange } from '../calibration/calibration-change.entity';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { Image } from './image.entity';
 import { imageKeys } from './image-keys';
@@ -56,6 +57,10 @@ export class ImagesService {
       // Every pixel-size change is on record (who, when, old, new), whichever path made it.
       await this.ds.getRepository(CalibrationChange).insert({
         imageId, userId: editorId, oldUmPerPx: image.pixelSizeUm, newUmPerPx: pixelSizeUm, source: 'user', note: `Entered by ${byWhom}.`,
+      });
+      await recordActivity(this.ds.manager, {
+        projectId, imageId, actorId: editorId, action: 'image.pixel_size_changed',
+        summary: `changed the pixel size from ${image.pixelSizeUm ?? 'none'} to ${pixelSizeUm} µm/px (typed)`,
       });
     }
     if (confirmPixelSize) {

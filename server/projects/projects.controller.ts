@@ -31,17 +31,17 @@ export class ProjectsController {
   };
 
   addMember: RequestHandler = async (req, res) => {
-    res.status(201).json(await this.service.addMember(String(req.params['projectId']), req.body as AddMemberBody));
+    res.status(201).json(await this.service.addMember(currentUser(req), String(req.params['projectId']), req.body as AddMemberBody));
   };
 
   changeMember: RequestHandler = async (req, res) => {
     const { projectId, userId } = req.params as { projectId: string; userId: string };
-    res.json(await this.service.changeMemberRole(projectId, userId, (req.body as ChangeMemberBody).role));
+    res.json(await this.service.changeMemberRole(currentUser(req), projectId, userId, (req.body as ChangeMemberBody).role));
   };
 
   removeMember: RequestHandler = async (req, res) => {
     const { projectId, userId } = req.params as { projectId: string; userId: string };
-    await this.service.removeMember(projectId, userId);
+    await this.service.removeMember(currentUser(req), projectId, userId);
     res.status(204).end();
   };
 }

@@ -11,6 +11,7 @@ import type {
 } from '../../shared/projects';
 import type { ProjectRole } from '../../shared/roles';
 import type { AppContext } from '../app-context';
+import { recordActivity } from '../activity/record-activity';
 import { addDefaultAnnotationClasses } from '../annotations/default-classes';
 import { User } from '../auth/user.entity';
 import { AppError } from '../http/app-error';
@@ -69,6 +70,7 @@ export class ProjectsService {
       const project = await m.save(m.create(Project, body));
       await m.insert(ProjectMembership, { projectId: project.id, userId: user.id, role: 'lead' });
       await addDefaultAnnotationClasses(m, project.id);
+      await recordActivity(m, { projectId: project.id, actorId: user.id, action: 'project.created', summary: `created the project ${body.code}` });
       return project.id;
     });
     return this.detail(user, id, 'lead');
@@ -80,11 +82,15 @@ export class ProjectsService {
   }
 
   async update(user: Express.User, projectId: string, body: UpdateProjectBody, myRole: ProjectRole | null): Promise<ProjectDetail> {
-    await this.ds.getRepository(Project).update({ id: projectId }, body);
+    await this.ds.transaction(async (m) => {
+      await m.update(Project, { id: projectId }, body);
+      const what = body.status ? (body.status === 'archived' ? 'archived the project' : 'restored the project') : `edited ${Object.keys(body).join(' and ')}`;
+      await recordActivity(m, { projectId, actorId: user.id, action: 'project.updated', summary: what });
+    });
     return this.detail(user, projectId, myRole);
   }
 
-  async addMember(projectId: string, body: AddMemberBody): Promise<ProjectMember> {
+  async addMember(actor: Express.User, projectId: string, body: AddMemberBody): Promise<ProjectMember> {
     return this.ds.transaction(async (m) => {
       const user = await m.findOneBy(User, { email: body.email });
       if (!user) {
@@ -98,25 +104,29 @@ export class ProjectsService {
       }
       await m.insert(ProjectMembership, { projectId, userId: user.id, role: body.role });
       await m.update(Project, { id: projectId }, { updatedAt: new Date() });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'member.added', summary: `added ${user.displayName} as ${body.role}` });
       return toProjectMember(await m.findOneOrFail(ProjectMembership, { where: { projectId, userId: user.id }, relations: { user: true } }));
     });
   }
 
-  async changeMemberRole(projectId: string, userId: string, role: ProjectRole): Promise<ProjectMember> {
+  async changeMemberRole(actor: Express.User, projectId: string, userId: string, role: ProjectRole): Promise<ProjectMember> {
     return this.ds.transaction(async (m) => {
       const membership = await this.lockedMembership(m, projectId, userId);
       if (membership.role === 'lead' && role !== 'lead') await this.keepOneLead(m, projectId);
+      const before = membership.role;
       membership.role = role;
       await m.save(membership);
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'member.changed', summary: `made ${membership.user.displayName} ${role} (was ${before})` });
       return toProjectMember(membership);
     });
   }
 
-  async removeMember(projectId: string, userId: string): Promise<void> {
+  async removeMember(actor: Express.User, projectId: string, userId: string): Promise<void> {
     await this.ds.transaction(async (m) => {
       const membership = await this.lockedMembership(m, projectId, userId);
       if (membership.role === 'lead') await this.keepOneLead(m, projectId);
       await m.delete(ProjectMembership, { projectId, userId });
+      await recordActivity(m, { projectId, actorId: actor.id, action: 'member.removed', summary: `removed ${membership.user.displayName} (${membership.role})` });
     });
   }
 
