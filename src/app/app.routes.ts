@@ -7,6 +7,12 @@ export const routes: Routes = [
   { path: '', pathMatch: 'full', redirectTo: 'projects' },
   // Sign-in, forgot and reset password: no shell, no guard.
   { path: '', loadChildren: () => import('./auth/auth.routes') },
+  // The viewer takes the whole window (no shell), so it sits before the shell's routes.
+  {
+    path: 'projects/:projectId/images/:imageId/view',
+    canActivate: [authGuard],
+    loadChildren: () => import('./viewer/viewer.routes'),
+  },
   {
     path: '',
     component: Shell,

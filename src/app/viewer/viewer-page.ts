@@ -1,0 +1,595 @@
+import { ChangeDetectionStrategy, Component, computed, effect, ElementRef, inject, input, linkedSignal, OnDestroy, signal, untracked, viewChild } from '@angular/core';
+import { MatButton, MatIconButton } from '@angular/material/button';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatIcon } from '@angular/material/icon';
+import { MatInput } from '@angular/material/input';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatOption, MatSelect } from '@angular/material/select';
+import { MatTab, MatTabGroup } from '@angular/material/tabs';
+import { MatTooltip } from '@angular/material/tooltip';
+import { Title } from '@angular/platform-browser';
+import { RouterLink } from '@angular/router';
+import { ANNOTATION_COLOURS, KINDS_FOR_SHAPE, type AnnotationColour, type AnnotationKind, type Coordinates } from '../../../shared/annotations/annotations';
+import type { Point } from '../../../shared/annotations/geometry';
+import { shapeProblem } from '../../../shared/annotations/shape-rules';
+import type { ImageRecord } from '../../../shared/images';
+import { actualPixels, fitViewport, imageToScreen, panBy, zoomAround, type Viewport } from '../../../shared/viewer/viewport';
+import { remote } from '../core/remote';
+import { SessionStore } from '../core/session-store';
+import { AnnotationPanel } from './annotation-panel';
+import { AnnotationStore } from './annotation-store';
+import { CalibrateCard } from './calibrate-card';
+import { formatPixelSize } from './calibration-input';
+import type { ShapeState } from './command-stack';
+import { DisplayPanel } from './display-panel';
+import { ImagePanel } from './image-panel';
+import { cursorReadout, measurementLabel } from './measurements';
+import type { MicrographStage } from './micrograph-stage';
+import type { OverlayShape } from './overlay-layer';
+import { OverviewMap } from './overview-map';
+import { ScaleBar } from './scale-bar';
+import { KIND_OF_TOOL, type FinishedDraft, type ShapeDraft } from './shape-draft';
+import { ShortcutHelp } from './shortcut-help';
+import { actionForKey, type ShortcutAction, type ViewerTool } from './shortcuts';
+import { isNeutralTone, NEUTRAL_TONE, toneTransfer, type Tone } from './tone';
+import { ToolRail } from './tool-rail';
+import { centreOn, keepInView, resizeViewport, viewportForBounds } from './view-maths';
+import { previewUrl, tileUrl, ViewerApi } from './viewer-api';
+import type { ViewerInteraction } from './viewer-interaction';
+import { isShown, type ViewShape } from './view-shapes';
+
+const CALIBRATION_COLOUR = '#ffd23f';
+const ZOOM_STEP = 1.5;
+
+/** Hints under the class picker: how the current tool is used. */
+const TOOL_HINTS: Record<ViewerTool, string> = {
+  select: 'Click a shape to select it; drag it or its handles to change it. Drag elsewhere to pan.',
+  polyline: 'Click to place points; double-click or press Enter to finish.',
+  polygon: 'Click to place corners; click the first one or press Enter to close.',
+  freehand: 'Drag around the feature; release to close the outline.',
+  rectangle: 'Drag from one corner to the opposite one.',
+  point: 'Click to place a point.',
+  ruler: 'Drag from one end to the other.',
+  angle: 'Click the first end, the vertex, then the other end.',
+  text: 'Click where the note belongs, then type it.',
+  calibrate: 'Drag along a stage micrometer or a burned-in scale bar, then enter its true length.',
+};
+
+/**
+ * The micrograph viewer: tiles on a konva stage (loaded only on this page), annotation tools,
+ * measurements in calibrated units, calibration by a drawn line, and the side panels.
+ */
+@Component({
+  selector: 'ef-viewer-page',
+  imports: [
+    AnnotationPanel,
+    CalibrateCard,
+    DisplayPanel,
+    ImagePanel,
+    MatButton,
+    MatFormField,
+    MatIcon,
+    MatIconButton,
+    MatInput,
+    MatLabel,
+    MatOption,
+    MatProgressBar,
+    MatSelect,
+    MatTab,
+    MatTabGroup,
+    MatTooltip,
+    OverviewMap,
+    RouterLink,
+    ScaleBar,
+    ShortcutHelp,
+    ToolRail,
+  ],
+  providers: [AnnotationStore],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './viewer-page.html',
+  styleUrl: './viewer-page.scss',
+  host: {
+    '(document:keydown)': 'handleKeyDown($event)',
+    '(document:keyup)': 'handleKeyUp($event)',
+  },
+})
+export default class ViewerPage implements OnDestroy {
+  private readonly api = inject(ViewerApi);
+  private readonly session = inject(SessionStore);
+  private readonly title = inject(Title);
+  protected readonly store = inject(AnnotationStore);
+
+  /** Route parameters. */
+  readonly projectId = input.required<string>();
+  readonly imageId = input.required<string>();
+  private readonly canvasHost = viewChild<ElementRef<HTMLDivElement>>('canvasHost');
+  private readonly stageHost = viewChild<ElementRef<HTMLDivElement>>('stageHost');
+  private readonly noteInput = viewChild<ElementRef<HTMLInputElement>>('noteInput');
+
+  protected readonly project = remote(this.projectId, (id) => this.api.project(id));
+  protected readonly record = remote(
+    () => ({ projectId: this.projectId(), imageId: this.imageId() }),
+    (p) => this.api.image(p.projectId, p.imageId),
+  );
+  protected readonly classList = remote(this.projectId, (id) => this.api.classes(id));
+
+  protected readonly image = computed(() => this.record.value() ?? null);
+  protected readonly ready = computed(() => this.image()?.processing.state === 'ready');
+  protected readonly allowed = computed(() => new Set(this.project.value()?.allowed ?? []));
+  protected readonly canAnnotate = computed(() => this.allowed().has('annotate'));
+  protected readonly canCalibrate = computed(() => this.allowed().has('editMetadata'));
+  protected readonly canEditClasses = computed(() => this.allowed().has('editProject'));
+  protected readonly classes = computed(() => this.classList.value() ?? []);
+  protected readonly classId = linkedSignal<string>(() => this.classes()[0]?.id ?? '');
+  protected readonly chosenClass = computed(() => this.classes().find((c) => c.id === this.classId()) ?? null);
+  protected readonly kinds = computed<readonly AnnotationKind[]>(() => {
+    const c = this.chosenClass();
+    return c ? KINDS_FOR_SHAPE[c.shapeKind] : [];
+  });
+  protected readonly umPerPx = computed(() => this.image()?.pixelSize.xUm ?? null);
+  protected readonly pixelSizeChip = computed(() => {
+    const um = this.umPerPx();
+    return um ? formatPixelSize(um) : '';
+  });
+
+  protected readonly tool = signal<ViewerTool>('select');
+  protected readonly toolHint = computed(() => TOOL_HINTS[this.tool()]);
+  protected readonly selectedKey = signal<string | null>(null);
+  protected readonly hiddenClasses = signal<ReadonlySet<string>>(new Set());
+  protected readonly view = signal<Viewport | null>(null);
+  protected readonly cursor = signal<Point | null>(null);
+  protected readonly readout = computed(() => {
+    const p = this.cursor();
+    return p ? cursorReadout(p, this.umPerPx()) : null;
+  });
+  protected readonly zoomPercent = computed(() => Math.round((this.view()?.scale ?? 0) * 100));
+  protected readonly tone = signal<Tone>(NEUTRAL_TONE);
+  protected readonly toneCurve = computed(() => toneTransfer(this.tone()));
+  protected readonly helpOpen = signal(false);
+  protected readonly calibrationLine = signal<Coordinates | null>(null);
+  protected readonly note = signal<{ at: Point; text: string } | null>(null);
+  protected readonly notePosition = computed(() => {
+    const n = this.note();
+    const v = this.view();
+    return n && v ? imageToScreen(v, n.at[0], n.at[1]) : null;
+  });
+  /** A shape the client or the server refused, or a save conflict. */
+  protected readonly problem = signal('');
+  protected readonly saveLine = computed(() => {
+    const s = this.store.saveStatus();
+    if (s.waiting === 0) return '';
+    if (s.retrying) return `${s.waiting} ${s.waiting === 1 ? 'change' : 'changes'} waiting to save`;
+    return 'Saving…';
+  });
+  protected readonly previewSrc = computed(() => previewUrl(this.projectId(), this.imageId()));
+  protected readonly backLink = computed(() => {
+    const img = this.image();
+    return img ? ['/projects', this.projectId(), 'specimens', img.specimenId] : ['/projects', this.projectId()];
+  });
+
+  private stage: MicrographStage | null = null;
+  private interaction: ViewerInteraction | null = null;
+  private resizeObserver: ResizeObserver | null = null;
+  private readonly stageReady = signal(false);
+  private mounting = false;
+  private editing: { key: string; points: Coordinates } | null = null;
+  private draft: ShapeDraft | null = null;
+  private flight = 0;
+  private classJustChosen = false;
+
+  private readonly nameInTitle = effect(() => {
+    const img = this.image();
+    if (img) this.title.setTitle(`${img.originalName} · Viewer · Etchfile`);
+  });
+
+  private readonly mountWhenReady = effect(() => {
+    const img = this.image();
+    const host = this.canvasHost()?.nativeElement;
+    const stageHost = this.stageHost()?.nativeElement;
+    if (img && this.ready() && host && stageHost && !this.stage && !this.mounting) void this.mountStage(img, host, stageHost);
+  });
+
+  /** Who draws here, as plain values: a refreshed session object must not reopen the store. */
+  private readonly meId = computed(() => this.session.user()?.id ?? '');
+  private readonly meName = computed(() => this.session.user()?.displayName ?? '');
+
+  private readonly openAnnotations = effect(() => {
+    const id = this.meId();
+    const name = this.meName();
+    const projectId = this.projectId();
+    const imageId = this.imageId();
+    if (id && this.ready()) untracked(() => void this.store.open(projectId, imageId, { id, name }));
+  });
+
+  private readonly drawShapes = effect(() => {
+    const shapes = this.store.shapes();
+    const hidden = this.hiddenClasses();
+    const colours = this.colourById();
+    if (!this.stageReady() || !this.stage) return;
+    this.stage.shapes.sync(shapes, (s) => ({ colour: colours.get(s.classId) ?? ANNOTATION_COLOURS.slate }), (s) => isShown(s, hidden), this.editing?.key ?? null);
+    this.stage.shapes.setCalibration(this.umPerPx());
+    this.stage.invalidate('shapes');
+    untracked(() => this.refreshOverlay());
+  });
+
+  private readonly drawSelection = effect(() => {
+    this.selectedKey();
+    this.tool();
+    this.calibrationLine();
+    if (this.stageReady()) untracked(() => this.refreshOverlay());
+  });
+
+  private readonly applyTone = effect(() => {
+    const tone = this.tone();
+    if (!this.stageReady() || !this.stage) return;
+    this.stage.tileCanvas.style.filter = isNeutralTone(tone) ? '' : 'url(#ef-viewer-tone)';
+  });
+
+  /** A tool the chosen class cannot take falls back to selecting. */
+  private readonly keepToolFitting = effect(() => {
+    const tool = this.tool();
+    const kind = tool === 'select' || tool === 'calibrate' ? null : KIND_OF_TOOL[tool];
+    if (kind && !this.kinds().includes(kind)) this.tool.set('select');
+  });
+
+  private readonly dropDraftOnToolChange = effect(() => {
+    this.tool();
+    untracked(() => {
+      this.interaction?.toolChanged();
+      this.note.set(null);
+    });
+  });
+
+  /** The note field takes the keyboard as soon as it opens. */
+  private readonly focusNote = effect(() => this.noteInput()?.nativeElement.focus({ preventScroll: true }));
+
+  private readonly colourById = computed(() => new Map(this.classes().map((c) => [c.id, ANNOTATION_COLOURS[c.colour]])));
+
+  ngOnDestroy(): void {
+    cancelAnimationFrame(this.flight);
+    this.resizeObserver?.disconnect();
+    this.interaction?.destroy();
+    this.stage?.destroy();
+  }
+
+  protected colourOf(colour: AnnotationColour): string {
+    return ANNOTATION_COLOURS[colour];
+  }
+
+  protected chooseClass(classId: string): void {
+    this.classId.set(classId);
+    this.classJustChosen = true;
+  }
+
+  /** After a class is picked, the keyboard goes back to the canvas so tool keys work at once. */
+  protected returnToCanvas(): void {
+    if (!this.classJustChosen) return;
+    this.classJustChosen = false;
+    setTimeout(() => this.canvasHost()?.nativeElement.focus({ preventScroll: true }));
+  }
+
+  protected fit(): void {
+    const v = this.view();
+    const img = this.image();
+    if (v && img) this.setView(fitViewport(img, v.width, v.height));
+  }
+
+  protected showActualPixels(): void {
+    const v = this.view();
+    if (v) this.setView(actualPixels(v));
+  }
+
+  protected zoomBy(factor: number): void {
+    const v = this.view();
+    const img = this.image();
+    if (v && img) this.setView(zoomAround(v, img, factor, v.width / 2, v.height / 2));
+  }
+
+  protected moveTo(p: { x: number; y: number }): void {
+    const v = this.view();
+    if (v) this.setView(centreOn(v, p.x, p.y));
+  }
+
+  /** From the side list: select the shape and fly the view to it. */
+  protected chooseShape(key: string): void {
+    const s = this.store.byKey().get(key);
+    const v = this.view();
+    if (!s || !v) return;
+    this.selectedKey.set(key);
+    this.tool.set('select');
+    this.flyTo(viewportForBounds(v, s.bounds));
+  }
+
+  protected changeShape(change: { key: string; state: ShapeState }): void {
+    this.store.update(change.key, change.state);
+  }
+
+  protected removeShape(key: string): void {
+    this.store.remove(key);
+    if (this.selectedKey() === key) this.selectedKey.set(null);
+  }
+
+  protected reloadFromPanel(what: 'classes' | 'annotations'): void {
+    if (what === 'classes') this.classList.reload();
+    else void this.store.reloadAll();
+  }
+
+  protected calibrated(record: ImageRecord): void {
+    this.record.set(record);
+    this.calibrationLine.set(null);
+    this.tool.set('select');
+  }
+
+  protected cancelCalibration(): void {
+    this.calibrationLine.set(null);
+  }
+
+  protected saveNote(): void {
+    const n = this.note();
+    const img = this.image();
+    if (!n || !img) return;
+    this.addShape({ classId: this.classId(), kind: 'text', points: [[n.at[0], n.at[1]]], label: n.text.trim() });
+    if (!this.problem()) this.note.set(null);
+  }
+
+  protected cancelNote(): void {
+    this.note.set(null);
+  }
+
+  protected setNoteText(text: string): void {
+    this.note.update((n) => (n ? { ...n, text } : n));
+  }
+
+  protected undo(): void {
+    const key = this.store.undo();
+    if (key && !this.store.byKey().has(key) && this.selectedKey() === key) this.selectedKey.set(null);
+  }
+
+  protected redo(): void {
+    const key = this.store.redo();
+    if (key && !this.store.byKey().has(key) && this.selectedKey() === key) this.selectedKey.set(null);
+  }
+
+  protected deleteSelected(): void {
+    const key = this.selectedKey();
+    if (key && this.canAnnotate()) this.removeShape(key);
+  }
+
+  protected handleKeyDown(e: KeyboardEvent): void {
+    if (!this.stage || isTyping(e.target) || document.querySelector('.mat-mdc-dialog-container')) return;
+    if (e.key === ' ' && !(e.target instanceof HTMLButtonElement)) {
+      this.interaction?.setSpaceHeld(true);
+      e.preventDefault();
+      return;
+    }
+    const action = actionForKey(e);
+    if (!action) return;
+    if ((e.key === 'Enter' || e.key === ' ') && e.target instanceof HTMLButtonElement) return;
+    e.preventDefault();
+    this.run(action);
+  }
+
+  protected handleKeyUp(e: KeyboardEvent): void {
+    if (e.key === ' ') this.interaction?.setSpaceHeld(false);
+  }
+
+  private run(a: ShortcutAction): void {
+    switch (a.type) {
+      case 'tool':
+        return this.chooseTool(a.tool);
+      case 'zoomIn':
+        return this.zoomBy(ZOOM_STEP);
+      case 'zoomOut':
+        return this.zoomBy(1 / ZOOM_STEP);
+      case 'fit':
+        return this.fit();
+      case 'actualPixels':
+        return this.showActualPixels();
+      case 'pan': {
+        const v = this.view();
+        if (v) this.setView(panBy(v, a.dx, a.dy));
+        return;
+      }
+      case 'undo':
+        return this.undo();
+      case 'redo':
+        return this.redo();
+      case 'delete':
+        return this.deleteSelected();
+      case 'finish':
+        if (this.note()) return this.saveNote();
+        return this.interaction?.finishDraft();
+      case 'removeLast':
+        this.interaction?.removeLastPoint();
+        return;
+      case 'cancel':
+        if (this.interaction?.cancelDraft()) return;
+        if (this.helpOpen()) return this.helpOpen.set(false);
+        if (this.note()) return this.note.set(null);
+        if (this.calibrationLine()) return this.calibrationLine.set(null);
+        return this.selectedKey.set(null);
+      case 'help':
+        return this.helpOpen.update((open) => !open);
+    }
+  }
+
+  private chooseTool(tool: ViewerTool): void {
+    if (tool === 'calibrate') {
+      if (this.canCalibrate()) this.tool.set(tool);
+      return;
+    }
+    if (tool === 'select') return this.tool.set(tool);
+    const kind = KIND_OF_TOOL[tool];
+    if (this.canAnnotate() && kind && this.kinds().includes(kind)) this.tool.set(tool);
+  }
+
+  private setView(v: Viewport): void {
+    const img = this.image();
+    const next = img ? keepInView(v, img) : v;
+    this.view.set(next);
+    this.stage?.setViewport(next);
+  }
+
+  /** A short glide to the target view (or a jump, for those who asked for less motion). */
+  private flyTo(target: Viewport): void {
+    cancelAnimationFrame(this.flight);
+    const from = this.view();
+    if (!from || matchMedia('(prefers-reduced-motion: reduce)').matches) return this.setView(target);
+    const start = performance.now();
+    const duration = 280;
+    const c0 = { x: from.x + from.width / from.scale / 2, y: from.y + from.height / from.scale / 2 };
+    const c1 = { x: target.x + target.width / target.scale / 2, y: target.y + target.height / target.scale / 2 };
+    const step = (now: number) => {
+      const t = Math.min(1, (now - start) / duration);
+      const k = t * (2 - t);
+      const scale = Math.exp(Math.log(from.scale) + (Math.log(target.scale) - Math.log(from.scale)) * k);
+      this.setView(centreOn({ ...from, scale }, c0.x + (c1.x - c0.x) * k, c0.y + (c1.y - c0.y) * k));
+      if (t < 1) this.flight = requestAnimationFrame(step);
+    };
+    this.flight = requestAnimationFrame(step);
+  }
+
+  private async mountStage(img: ImageRecord, host: HTMLDivElement, stageHost: HTMLDivElement): Promise<void> {
+    this.mounting = true;
+    // konva is loaded here, with the viewer, and never with the rest of the app.
+    const [{ default: Konva }, { MicrographStage }, { ViewerInteraction }] = await Promise.all([
+      import('konva'),
+      import('./micrograph-stage'),
+      import('./viewer-interaction'),
+    ]);
+    const width = Math.max(1, host.clientWidth);
+    const height = Math.max(1, host.clientHeight);
+    const v = fitViewport(img, width, height);
+    const projectId = this.projectId();
+    this.stage = new MicrographStage(Konva, stageHost, img, v, {
+      tile: (level, col, row) => tileUrl(projectId, img.id, level, col, row),
+      preview: previewUrl(projectId, img.id),
+    });
+    this.interaction = new ViewerInteraction(stageHost, host, {
+      image: img,
+      view: () => this.view() ?? v,
+      setView: (next) => this.setView(next),
+      tool: () => this.tool(),
+      canEdit: () => this.canAnnotate(),
+      shapes: () => {
+        const hidden = this.hiddenClasses();
+        return this.store.shapes().filter((s) => isShown(s, hidden));
+      },
+      selected: () => this.selectedKey(),
+      select: (key) => this.selectedKey.set(key),
+      draftChanged: (d) => {
+        this.draft = d;
+        this.refreshOverlay();
+      },
+      finished: (result) => this.finished(result),
+      editPreview: (key, points) => this.editPreview(key, points),
+      commitEdit: (key, points) => this.commitEdit(key, points),
+      cursorMoved: (p) => this.cursor.set(p),
+    });
+    this.resizeObserver = new ResizeObserver(() => {
+      const current = this.view();
+      const w = Math.max(1, host.clientWidth);
+      const h = Math.max(1, host.clientHeight);
+      if (current && (current.width !== w || current.height !== h)) this.setView(resizeViewport(current, w, h));
+    });
+    this.resizeObserver.observe(host);
+    this.view.set(v);
+    this.stageReady.set(true);
+  }
+
+  private finished(result: FinishedDraft): void {
+    this.problem.set('');
+    if (result.tool === 'calibrate') {
+      this.calibrationLine.set(result.points);
+      return;
+    }
+    if (result.tool === 'text') {
+      this.note.set({ at: result.points[0]!, text: '' });
+      return;
+    }
+    this.addShape({ classId: this.classId(), kind: KIND_OF_TOOL[result.tool]!, points: result.points, label: '' });
+  }
+
+  /** Checks a new shape as the server will, then shows and saves it. */
+  private addShape(state: ShapeState): void {
+    const img = this.image();
+    if (!img || !this.canAnnotate()) return;
+    if (!state.classId) return this.problem.set('Choose a class before drawing.');
+    const problem = shapeProblem(state.kind, state.points, img, state.label);
+    if (problem) return this.problem.set(problem);
+    this.problem.set('');
+    this.store.add(state);
+  }
+
+  private editPreview(key: string, points: Coordinates | null): void {
+    const was = this.editing?.key ?? null;
+    this.editing = points ? { key, points } : null;
+    if (was !== (this.editing?.key ?? null) && this.stage) {
+      const hidden = this.hiddenClasses();
+      const colours = this.colourById();
+      this.stage.shapes.sync(this.store.shapes(), (s) => ({ colour: colours.get(s.classId) ?? ANNOTATION_COLOURS.slate }), (s) => isShown(s, hidden), this.editing?.key ?? null);
+      this.stage.invalidate('shapes');
+    }
+    this.refreshOverlay();
+  }
+
+  private commitEdit(key: string, points: Coordinates): void {
+    const s = this.store.byKey().get(key);
+    const img = this.image();
+    if (!s || !img) return;
+    const problem = shapeProblem(s.kind, points, img, s.label);
+    if (problem) {
+      this.problem.set(problem);
+      return this.refreshOverlay();
+    }
+    this.problem.set('');
+    this.store.update(key, { classId: s.classId, kind: s.kind, points, label: s.label });
+  }
+
+  /** Selection, draft and calibration line onto the overlay layer. */
+  private refreshOverlay(): void {
+    const stage = this.stage;
+    if (!stage) return;
+    const um = this.umPerPx();
+    const colours = this.colourById();
+    const selected = this.selectedKey() ? this.store.byKey().get(this.selectedKey()!) : undefined;
+    let selection: OverlayShape | null = null;
+    if (selected) {
+      const points = this.editing?.key === selected.key ? this.editing.points : selected.points;
+      selection = {
+        kind: selected.kind,
+        points,
+        label: selected.label,
+        colour: colours.get(selected.classId) ?? ANNOTATION_COLOURS.slate,
+        measurement: measurementLabel(selected.kind, points, um),
+      };
+    }
+    stage.overlay.setSelection(selection, this.canAnnotate() && this.tool() === 'select');
+    stage.overlay.setCalibrationLine(this.calibrationLine());
+    const d = this.draft;
+    const preview = d?.preview() ?? [];
+    if (d && preview.length > 0) {
+      const kind = KIND_OF_TOOL[d.tool] ?? 'ruler';
+      const points = preview.map((p) => [p[0], p[1]] as [number, number]);
+      const colour = d.tool === 'calibrate' ? CALIBRATION_COLOUR : (colours.get(this.classId()) ?? ANNOTATION_COLOURS.slate);
+      stage.overlay.setDraft({ kind, points, label: '', colour, measurement: draftMeasurement(kind, points, um) });
+    } else {
+      stage.overlay.setDraft(null);
+    }
+    stage.invalidate('overlay');
+  }
+}
+
+/** What a shape being drawn measures so far. */
+function draftMeasurement(kind: AnnotationKind, points: Coordinates, um: number | null): string {
+  if (kind === 'angle' && points.length < 3) return '';
+  if ((kind === 'polygon' || kind === 'rectangle') && points.length < 3) return '';
+  return kind === 'point' || kind === 'text' ? '' : measurementLabel(kind, points, um);
+}
+
+function isTyping(target: EventTarget | null): boolean {
+  if (!(target instanceof HTMLElement)) return false;
+  if (target.isContentEditable) return true;
+  if (target instanceof HTMLInputElement) return target.type !== 'checkbox' && target.type !== 'radio';
+  return target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement || target.getAttribute('role') === 'combobox' || target.getAttribute('role') === 'listbox' || target.getAttribute('role') === 'option';
+}
