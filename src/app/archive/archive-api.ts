@@ -67,8 +67,9 @@ export class ArchiveApi {
     return this.http.delete<void>(this.url(projectId, 'samples', sampleId));
   }
 
-  listSpecimens(projectId: string, sampleId: string): Observable<Specimen[]> {
-    const params = new HttpParams({ fromObject: { sampleId } });
+  /** A sample's specimens, or every specimen of the project without `sampleId`. */
+  listSpecimens(projectId: string, sampleId?: string): Observable<Specimen[]> {
+    const params = new HttpParams({ fromObject: sampleId ? { sampleId } : {} });
     return this.http.get<Specimen[]>(this.url(projectId, 'specimens'), { params });
   }
 

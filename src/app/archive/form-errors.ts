@@ -8,6 +8,8 @@ import { isApiErrorBody, type FieldProblem } from '../../../shared/api-error';
 
 /** The part of an Angular control this needs. */
 export interface ErrorTarget {
+  /** Present on groups and arrays, which have no place to show a message. */
+  controls?: unknown;
   errors: Record<string, unknown> | null;
   setErrors(errors: Record<string, unknown> | null): void;
   markAsTouched(): void;
@@ -36,15 +38,16 @@ export function controlPath(field: string, rename: Readonly<Record<string, strin
 
 /**
  * Sets each problem as a `server` error on its control (and marks it touched,
- * so it shows at once). Returns the messages no control took, for a line
- * under the form.
+ * so it shows at once). Problems about a whole list or group (`body.layers`:
+ * "at least one layer") have no field to sit beside; they come back with the
+ * others no control took, for a line under the form.
  */
 export function placeFieldErrors(form: ControlTree, problems: readonly FieldProblem[], rename: Readonly<Record<string, string>> = {}): string[] {
   const leftOver: string[] = [];
   for (const problem of problems) {
     const path = controlPath(problem.field, rename);
     const control = path === '' ? null : form.get(path);
-    if (control) {
+    if (control && control.controls === undefined) {
       control.setErrors({ ...control.errors, server: problem.message });
       control.markAsTouched();
     } else {

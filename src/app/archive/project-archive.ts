@@ -1,16 +1,25 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { MatAnchor } from '@angular/material/button';
+import { MatIcon } from '@angular/material/icon';
 import { MatTab, MatTabContent, MatTabGroup } from '@angular/material/tabs';
+import { RouterLink } from '@angular/router';
 import type { ProjectDetail } from '../../../shared/projects';
 import { MaterialList } from './material-list';
 import { SampleList } from './sample-list';
 
-/** The project's catalogue on its page: samples and the materials they are made of. */
+/** The project's catalogue on its page: samples and the materials they are made of, and the way to its images. */
 @Component({
   selector: 'ef-project-archive',
-  imports: [MatTab, MatTabContent, MatTabGroup, MaterialList, SampleList],
+  imports: [MatAnchor, MatIcon, MatTab, MatTabContent, MatTabGroup, MaterialList, RouterLink, SampleList],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <h2 class="ef-visually-hidden">Archive</h2>
+    <div class="archive-head">
+      <h2>Archive</h2>
+      <a mat-stroked-button [routerLink]="['/projects', project().id, 'images']">
+        <mat-icon>photo_library</mat-icon>
+        Search images
+      </a>
+    </div>
     <mat-tab-group mat-stretch-tabs="false" mat-align-tabs="start" animationDuration="0ms" aria-label="Archive">
       <mat-tab label="Samples">
         <ng-template matTabContent>
@@ -27,6 +36,16 @@ import { SampleList } from './sample-list';
   styles: `
     :host {
       display: block;
+    }
+    .archive-head {
+      display: flex;
+      align-items: center;
+      justify-content: space-between;
+      gap: 12px;
+    }
+    h2 {
+      margin: 0;
+      font: var(--mat-sys-title-large);
     }
     .tab-body {
       padding-top: 16px;

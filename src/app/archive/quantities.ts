@@ -26,7 +26,7 @@ export function formatThickness(mm: number): string {
   if (!Number.isFinite(mm)) return '–';
   if (mm === 0) return '0 mm';
   const um = mm * 1000;
-  // Compare the rounded numbers, so 0.09999 mm reads "100 µm", not "0.100 mm" one step later.
+  // Compare the rounded numbers, so 0.09999 mm reads "0.100 mm" rather than "100 µm" (three figures either way).
   if (Number(mm.toPrecision(3)) >= 0.1) return `${significant(mm)} mm`;
   if (Number(um.toPrecision(3)) >= 1) return `${significant(um)} µm`;
   return `${significant(um * 1000)} nm`;

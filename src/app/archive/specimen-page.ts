@@ -18,11 +18,12 @@ import { EtchantCaution } from './etchant-caution';
 import { LocationList } from './location-list';
 import { formatEtchingTime } from './quantities';
 import type { SpecimenDialogData } from './specimen-dialog';
+import { SpecimenImages } from './specimen-images';
 
-/** One specimen: how it was cut and prepared, the caution if etched, its locations, and (soon) its images. */
+/** One specimen: how it was cut and prepared, the caution if etched, its locations, and its images. */
 @Component({
   selector: 'ef-specimen-page',
-  imports: [Breadcrumbs, DatePipe, EtchantCaution, LocationList, MatButton, MatIcon, MatProgressBar],
+  imports: [Breadcrumbs, DatePipe, EtchantCaution, LocationList, MatButton, MatIcon, MatProgressBar, SpecimenImages],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './specimen-page.html',
   styleUrl: './archive-pages.scss',
@@ -43,6 +44,7 @@ export default class SpecimenPage {
   protected readonly specimen = remote(this.ids, ({ projectId, specimenId }) => this.api.getSpecimen(projectId, specimenId));
   protected readonly canEdit = computed(() => this.project.value()?.allowed.includes('editMetadata') ?? false);
   protected readonly canDelete = computed(() => this.project.value()?.allowed.includes('delete') ?? false);
+  protected readonly canUpload = computed(() => this.project.value()?.allowed.includes('upload') ?? false);
   protected readonly crumbs = computed<Crumb[]>(() => {
     const s = this.specimen.value();
     return [
