@@ -24,6 +24,8 @@ export const ACTIVITY_ACTIONS = [
   'measurement.deleted',
   'review.state_changed',
   'comment.added',
+  'comment.resolved',
+  'comment.reopened',
 ] as const;
 export type ActivityAction = (typeof ACTIVITY_ACTIONS)[number];
 

@@ -1,0 +1,231 @@
+import { z } from 'zod';
+import type { Annotation } from './annotations/annotations';
+import { MODALITIES, type Modality, type PixelSizeInfo } from './images';
+import { pagingQuery } from './paging';
+import type { ProjectAction } from './roles';
+
+/** What can be reviewed. Figures follow images; the state table already takes both. */
+export const REVIEW_SUBJECT_TYPES = ['image', 'figure'] as const;
+export type ReviewSubjectType = (typeof REVIEW_SUBJECT_TYPES)[number];
+
+/** Where a reviewed item stands. An item nobody has submitted yet is a draft. */
+export const REVIEW_STATES = ['draft', 'with_reviewers', 'needs_changes', 'cleared'] as const;
+export type ReviewState = (typeof REVIEW_STATES)[number];
+
+/** Our names for the states, as people read them. */
+export const REVIEW_STATE_LABELS: Record<ReviewState, string> = {
+  draft: 'Draft',
+  with_reviewers: 'With reviewers',
+  needs_changes: 'Needs changes',
+  cleared: 'Cleared for publication',
+};
+
+export const REVIEW_TRANSITIONS = ['submit', 'requestChanges', 'clear', 'reopen'] as const;
+export type ReviewTransition = (typeof REVIEW_TRANSITIONS)[number];
+
+/** Each move: the states it starts from, where it leads, and the permission (shared/roles.ts) it needs. */
+export const TRANSITION_RULES: Record<ReviewTransition, { from: readonly ReviewState[]; to: ReviewState; action: ProjectAction; label: string }> = {
+  submit: { from: ['draft', 'needs_changes'], to: 'with_reviewers', action: 'submitForReview', label: 'Submit for review' },
+  requestChanges: { from: ['with_reviewers'], to: 'needs_changes', action: 'decideReview', label: 'Request changes' },
+  clear: { from: ['with_reviewers'], to: 'cleared', action: 'decideReview', label: 'Clear for publication' },
+  reopen: { from: ['cleared'], to: 'draft', action: 'reopenReview', label: 'Reopen' },
+};
+
+/** How a state reads inside a sentence: "this one is …". */
+const STATE_PHRASES: Record<ReviewState, string> = {
+  draft: 'a draft',
+  with_reviewers: 'with reviewers',
+  needs_changes: 'waiting for changes',
+  cleared: 'already cleared for publication',
+};
+
+/** Why `transition` cannot start from `state` (a sentence to show), or null when it can. */
+export function transitionProblem(transition: ReviewTransition, state: ReviewState): string | null {
+  if (TRANSITION_RULES[transition].from.includes(state)) return null;
+  const now = `this one is ${STATE_PHRASES[state]}`;
+  switch (transition) {
+    case 'submit':
+      return state === 'cleared'
+        ? 'This is already cleared for publication; a lead reopens it before it can be submitted again.'
+        : 'This is already with reviewers; wait for their decision.';
+    case 'requestChanges':
+      return `Only an item with reviewers can be sent back for changes; ${now}.`;
+    case 'clear':
+      return `Only an item with reviewers can be cleared; ${now}.`;
+    case 'reopen':
+      return `Only a cleared item can be reopened; ${now}.`;
+  }
+}
+
+/** The moves a caller with `allowed` actions can make from `state`. */
+export function availableTransitions(state: ReviewState, allowed: readonly ProjectAction[]): ReviewTransition[] {
+  return REVIEW_TRANSITIONS.filter((t) => TRANSITION_RULES[t].from.includes(state) && allowed.includes(TRANSITION_RULES[t].action));
+}
+
+export interface PersonRef {
+  id: string;
+  name: string;
+}
+
+/** One step of an item's review history. `reason` 'edited' is the automatic return to draft after a change. */
+export interface ReviewEvent {
+  id: string;
+  from: ReviewState;
+  to: ReviewState;
+  reason: ReviewTransition | 'edited';
+  actor: PersonRef;
+  note: string;
+  at: string;
+}
+
+/** GET …/images/:imageId/review */
+export interface ReviewStatus {
+  subjectType: ReviewSubjectType;
+  subjectId: string;
+  state: ReviewState;
+  stateLabel: string;
+  submittedBy: PersonRef | null;
+  submittedAt: string | null;
+  /** Threads still open on the item; clearing needs none. */
+  openThreads: number;
+  /** What the caller may do now, from the state and their role. */
+  transitions: ReviewTransition[];
+  /** Oldest first. */
+  history: ReviewEvent[];
+}
+
+/** A measurement as it stood when cleared; `definition` and `result` are the stored records (shared/measurements). */
+export interface SnapshotMeasurement {
+  id: string;
+  kind: string;
+  whereLabel: string;
+  umPerPx: number;
+  pixelSizeSource: string;
+  version: number;
+  definition: Record<string, unknown>;
+  result: Record<string, unknown>;
+  computedAt: string;
+}
+
+/** What was reviewed, frozen at the moment it was cleared; kept whatever happens to the image later. */
+export interface ReviewSnapshot {
+  id: string;
+  subjectId: string;
+  clearedBy: PersonRef;
+  clearedAt: string;
+  pixelSize: PixelSizeInfo;
+  annotations: Annotation[];
+  measurements: SnapshotMeasurement[];
+}
+
+const note = z.string().trim().max(2000, { error: 'Keep the note under 2000 characters.' }).default('');
+
+/** Body of every review move: an optional note (why changes are needed, what was checked). */
+export const reviewTransitionBody = z.strictObject({ note });
+export type ReviewTransitionBody = z.infer<typeof reviewTransitionBody>;
+
+/** A row of a reviewer's queue. */
+export interface ReviewQueueItem {
+  imageId: string;
+  projectId: string;
+  projectCode: string;
+  imageName: string;
+  modality: Modality;
+  specimenCode: string;
+  submittedBy: PersonRef;
+  submittedAt: string;
+  openThreads: number;
+}
+
+/** A repeated or comma-separated query field as a list. */
+const optionalList = <T extends z.ZodType>(item: T, max: number) =>
+  z.preprocess((v) => (v === undefined ? undefined : (Array.isArray(v) ? v : [v]).flatMap((s) => String(s).split(',')).map((s) => s.trim()).filter(Boolean)), z.array(item).max(max, { error: `Ask for at most ${max} at once.` }).optional());
+
+/** GET /api/review-queue: oldest submission first; every filter optional. */
+export const reviewQueueQuery = z.strictObject({
+  page: pagingQuery.page,
+  pageSize: pagingQuery.pageSize,
+  projectId: z.uuid({ error: 'Not a valid project id.' }).optional(),
+  modality: optionalList(z.enum(MODALITIES, { error: 'Unknown modality.' }), MODALITIES.length),
+  submitterId: z.uuid({ error: 'Not a valid user id.' }).optional(),
+});
+export type ReviewQueueQuery = z.infer<typeof reviewQueueQuery>;
+
+// ---- Comment threads pinned to an image ----
+
+export const THREAD_STATUSES = ['open', 'resolved'] as const;
+export type ThreadStatus = (typeof THREAD_STATUSES)[number];
+
+const px = z.number({ error: 'Give coordinates in image pixels.' }).finite();
+const position = z.tuple([px, px]);
+
+/** Where a thread is pinned: a point, a drawn region (a ring of image px, not closed by a repeat) or a measurement. */
+export const threadAnchor = z.discriminatedUnion(
+  'kind',
+  [
+    z.strictObject({ kind: z.literal('point'), at: position }),
+    z.strictObject({ kind: z.literal('region'), ring: z.array(position).min(3, { error: 'A region needs at least three points.' }).max(5000, { error: 'A region may have at most 5000 points.' }) }),
+    z.strictObject({ kind: z.literal('measurement'), measurementId: z.uuid({ error: 'Not a valid measurement id.' }) }),
+  ],
+  { error: 'Pin the thread to a point, a region or a measurement.' },
+);
+export type ThreadAnchor = z.infer<typeof threadAnchor>;
+
+const commentText = z
+  .string({ error: 'Write a comment.' })
+  .trim()
+  .min(1, { error: 'Write a comment; it is empty.' })
+  .max(5000, { error: 'Keep a comment under 5000 characters.' });
+
+/** Members to notify, as user ids chosen from the project's members (the client autocompletes names). */
+const mentions = z
+  .array(z.uuid({ error: 'Mention people by their user id.' }))
+  .max(20, { error: 'Mention at most 20 people in one comment.' })
+  .default([])
+  .transform((ids) => [...new Set(ids)]);
+
+export const newThreadBody = z.strictObject({ anchor: threadAnchor, body: commentText, mentions });
+export type NewThreadBody = z.infer<typeof newThreadBody>;
+
+export const commentBody = z.strictObject({ body: commentText, mentions });
+export type CommentBody = z.infer<typeof commentBody>;
+
+export const threadListQuery = z.strictObject({ status: z.enum([...THREAD_STATUSES, 'all']).default('all') });
+export type ThreadListQuery = z.infer<typeof threadListQuery>;
+
+export interface ThreadComment {
+  id: string;
+  threadId: string;
+  author: PersonRef;
+  body: string;
+  mentions: PersonRef[];
+  createdAt: string;
+}
+
+export interface CommentThread {
+  id: string;
+  projectId: string;
+  imageId: string;
+  anchor: ThreadAnchor;
+  /** False once the measurement it was pinned to is deleted; the thread and its anchor stay. */
+  anchorPresent: boolean;
+  status: ThreadStatus;
+  createdBy: PersonRef;
+  createdAt: string;
+  resolvedBy: PersonRef | null;
+  resolvedAt: string | null;
+  /** The first comment opens the thread; the rest are replies, oldest first. */
+  comments: ThreadComment[];
+}
+
+/** GET …/comment-counts: open threads in the project, and per image (images without open threads are left out). */
+export interface CommentCounts {
+  projectId: string;
+  unresolved: number;
+  images: Record<string, number>;
+}
+
+export const commentCountsQuery = z.strictObject({
+  imageId: optionalList(z.uuid({ error: 'Not a valid image id.' }), 200),
+});
+export type CommentCountsQuery = z.infer<typeof commentCountsQuery>;
