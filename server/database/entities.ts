@@ -14,8 +14,15 @@ import { User } from '../auth/user.entity';
 import { Image } from '../images/image.entity';
 import { MeasurementHistory } from '../measurements/measurement-history.entity';
 import { Measurement } from '../measurements/measurement.entity';
+import { NotificationSetting } from '../notifications/notification-setting.entity';
+import { Notification } from '../notifications/notification.entity';
 import { ProjectMembership } from '../projects/project-membership.entity';
 import { Project } from '../projects/project.entity';
+import { CommentThread } from '../reviews/comment-thread.entity';
+import { Comment } from '../reviews/comment.entity';
+import { ReviewEvent } from '../reviews/review-event.entity';
+import { ReviewSnapshot } from '../reviews/review-snapshot.entity';
+import { Review } from '../reviews/review.entity';
 
 /**
  * Every entity, imported as classes: a path glob would make TypeORM load second copies
@@ -40,4 +47,5 @@ export const ENTITIES = [
   Measurement,
   MeasurementHistory,
   ActivityEvent,
+  Review, ReviewEvent, ReviewSnapshot, CommentThread, Comment, Notification, NotificationSetting,
 ];
