@@ -12,11 +12,13 @@ import { createPassport } from './auth/passport-setup';
 import { healthRouter } from './health/health.routes';
 import { imagesRouter } from './images/images.routes';
 import { measurementsRouter } from './measurements/measurements.routes';
+import { notificationSettingsRouter } from './notifications/notification-settings.routes';
 import { requireCsrfToken } from './http/csrf';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { requestLogger } from './http/request-logger';
 import { sessionMiddleware } from './http/session';
 import { projectsRouter } from './projects/projects.routes';
+import { reviewQueueRouter, reviewsRouter } from './reviews/reviews.routes';
 
 /** Builds the Express app for a context; never listens (main.ts and tests do). */
 export function createApp(ctx: AppContext): Express {
@@ -44,8 +46,11 @@ export function createApp(ctx: AppContext): Express {
   api.use('/projects/:projectId', calibrationRouter(ctx));
   api.use('/projects/:projectId', measurementsRouter(ctx));
   api.use('/projects/:projectId', activityRouter(ctx));
+  api.use('/projects/:projectId', reviewsRouter(ctx));
   api.use('/projects/:projectId/images', imagesRouter(ctx));
   api.use('/admin', adminRouter(ctx));
+  api.use('/review-queue', reviewQueueRouter(ctx));
+  api.use('/me/notification-settings', notificationSettingsRouter(ctx));
   api.use(apiNotFound);
   app.use('/api', api);
 

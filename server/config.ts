@@ -49,6 +49,10 @@ const schema = z
     EF_MAX_IMAGE_PIXELS: z.coerce.number().int().positive().default(400_000_000),
     EF_WORKER: z.stringbool().default(true),
     EF_JOB_TIMEOUT_MIN: z.coerce.number().positive().default(30),
+    // Notification mail: first retry after about this many seconds, doubling; the daily digest's hour.
+    EF_MAIL_RETRY_SECONDS: z.coerce.number().int().positive().default(60),
+    EF_MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).default(12),
+    EF_DIGEST_HOUR_UTC: z.coerce.number().int().min(0).max(23).default(6),
   })
   .refine((env) => env.EF_MODE === 'local' || env.EF_SESSION_SECRET, {
     error: 'EF_SESSION_SECRET (32+ characters) is required in production mode.',
@@ -111,5 +115,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     /** Run the derivatives worker inside this process (`npm start`); `npm run worker` runs more elsewhere. */
     worker: e.EF_WORKER,
     jobTimeoutSeconds: Math.round(e.EF_JOB_TIMEOUT_MIN * 60),
+    /** Notification mail retries (with back-off) and the hour (UTC) the daily digest goes out. */
+    notifications: { retryDelaySeconds: e.EF_MAIL_RETRY_SECONDS, retryLimit: e.EF_MAIL_RETRY_LIMIT, digestHourUtc: e.EF_DIGEST_HOUR_UTC },
   };
 }

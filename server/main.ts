@@ -9,11 +9,14 @@ import { JobQueue } from './jobs/queue';
 import { startDerivativesWorker } from './jobs/worker';
 import { startFakeSmtp } from './mail/fake-smtp';
 import { Mailer } from './mail/mailer';
+import { startNotificationWorker } from './notifications/notification-worker';
 import { createFileStore } from './storage/create-file-store';
 
 export interface RunningServer {
   ctx: AppContext;
   server: Server;
+  /** The local fake mail server (local mode); replaceable, so a test can stop it and start it again. */
+  smtp: { close(): Promise<void> } | null;
   stop(): Promise<void>;
 }
 
@@ -31,24 +34,28 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
   const ctx: AppContext = { config, dataSource, mailer, logger, files, jobs };
   // EF_WORKER=false leaves the derivatives to `npm run worker` processes elsewhere.
   if (config.worker) await startDerivativesWorker({ dataSource, files, config, logger }, jobs);
+  const notifications = config.worker ? await startNotificationWorker({ dataSource, mailer, config, logger }, jobs) : null;
   const server = createApp(ctx).listen(config.port, config.host);
   await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
   logger.info(`Etchfile is serving on http://${config.host}:${config.port}`);
 
-  return {
+  const running: RunningServer = {
     ctx,
     server,
+    smtp,
     async stop() {
       const closed = new Promise<void>((resolve) => server.close(() => resolve()));
       // Keep-alive connections would hold close() open until they time out.
       server.closeAllConnections();
       await closed;
+      await notifications?.stop();
       mailer.close();
       await jobs.stop();
-      await smtp?.close();
+      await running.smtp?.close();
       await dataSource.destroy();
     },
   };
+  return running;
 }
 
 // Run directly (`npm run serve`, production): the database must already be running.

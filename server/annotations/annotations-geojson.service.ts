@@ -3,6 +3,7 @@ import type { FieldProblem } from '../../shared/api-error';
 import type { AppContext } from '../app-context';
 import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
+import { returnToDraftIfCleared } from '../reviews/return-to-draft';
 import { AnnotationClass } from './annotation-class.entity';
 import { Annotation } from './annotation.entity';
 import { toAnnotationDto } from './annotation.mapper';
@@ -55,6 +56,7 @@ export class AnnotationsGeoJsonService {
       if (details.length > 0) throw new AppError(422, 'validation_failed', `Nothing was imported: ${details[0]!.message}${details.length > 1 ? ` (and ${details.length - 1} more)` : ''}`, details);
       if (rows.length > 0) await m.insert(Annotation, rows);
       await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotations.imported', summary: `imported ${rows.length} shape${rows.length === 1 ? '' : 's'} from GeoJSON` });
+      if (rows.length > 0) await returnToDraftIfCleared(m, imageId, user.id, 'the annotations');
       return { imported: rows.length };
     });
   }

@@ -5,6 +5,7 @@ import type { AppContext } from '../app-context';
 import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { Image } from '../images/image.entity';
+import { returnToDraftIfCleared } from '../reviews/return-to-draft';
 import { AnnotationClass } from './annotation-class.entity';
 import { Annotation } from './annotation.entity';
 import { toAnnotationDto } from './annotation.mapper';
@@ -25,6 +26,7 @@ export class AnnotationsService {
       await this.check(m, projectId, image, body);
       const saved = await m.save(m.create(Annotation, { ...body, projectId, imageId, authorId: user.id, updatedBy: user.id }));
       await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotation.created', summary: `drew a ${body.kind}`, details: { annotationId: saved.id } });
+      await returnToDraftIfCleared(m, imageId, user.id, 'the annotations');
       return this.reload(m, saved.id);
     });
   }
@@ -43,6 +45,7 @@ export class AnnotationsService {
         .execute();
       if (result.affected !== 1) await this.conflict(m, current, version);
       await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotation.updated', summary: `changed a ${current.kind}`, details: { annotationId, version: version + 1 } });
+      await returnToDraftIfCleared(m, imageId, user.id, 'the annotations');
       return this.reload(m, annotationId);
     });
   }
@@ -54,6 +57,7 @@ export class AnnotationsService {
       const result = await m.delete(Annotation, { id: annotationId, version });
       if (result.affected !== 1) await this.conflict(m, current, version);
       await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'annotation.deleted', summary: `deleted a ${current.kind}`, details: { annotationId, points: current.points } });
+      await returnToDraftIfCleared(m, imageId, user.id, 'the annotations');
     });
   }
 

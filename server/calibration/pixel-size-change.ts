@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { PixelSizeSource } from '../../shared/pixel-size';
 import { recordActivity } from '../activity/record-activity';
 import { Image } from '../images/image.entity';
+import { returnToDraftIfCleared } from '../reviews/return-to-draft';
 import { CalibrationChange } from './calibration-change.entity';
 
 export interface PixelSizeChange {
@@ -40,4 +41,5 @@ export async function changePixelSize(m: EntityManager, image: Image, userId: st
     action: 'image.pixel_size_changed',
     summary: `changed the pixel size from ${from} to ${to} (${change.source})`,
   });
+  await returnToDraftIfCleared(m, image.id, userId, 'the pixel size');
 }

@@ -6,6 +6,7 @@ import { User } from '../auth/user.entity';
 import { CalibrationChange } from '../calibration/calibration-change.entity';
 import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
+import { returnToDraftIfCleared } from '../reviews/return-to-draft';
 import { Image } from './image.entity';
 import { imageKeys } from './image-keys';
 import { toImageRecord } from './image.mapper';
@@ -70,6 +71,7 @@ export class ImagesService {
       Object.assign(changes, { pixelSizeConfirmed: true, pixelSizeNote: `${image.pixelSizeNote.replace(/ Confirmed by .*$/, '')} Confirmed by ${byWhom}.` });
     }
     await this.ds.getRepository(Image).update({ id: imageId }, changes);
+    if (pixelSizeUm !== undefined) await returnToDraftIfCleared(this.ds.manager, imageId, editorId, 'the pixel size');
     return this.detail(projectId, imageId);
   }
 

@@ -1,6 +1,8 @@
 import { pino } from 'pino';
 import { loadConfig } from '../config';
 import { createDataSource } from '../database/data-source';
+import { Mailer } from '../mail/mailer';
+import { startNotificationWorker } from '../notifications/notification-worker';
 import { createFileStore } from '../storage/create-file-store';
 import { JobQueue } from './queue';
 import { startDerivativesWorker } from './worker';
@@ -16,12 +18,15 @@ const dataSource = createDataSource(config.db);
 await dataSource.initialize();
 const queue = await JobQueue.start(config, logger);
 await startDerivativesWorker({ dataSource, files: createFileStore(config), config, logger }, queue);
+// Notification e-mail runs here too, so a deployment whose web processes run no worker still sends it.
+const notifications = await startNotificationWorker({ dataSource, mailer: new Mailer(config.smtp, logger), config, logger }, queue);
 
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
   process.once(signal, () => {
     logger.info('worker stopping after the current job');
-    void queue
+    void notifications
       .stop()
+      .then(() => queue.stop())
       .then(() => dataSource.destroy())
       .finally(() => process.exit(0));
   });

@@ -14,4 +14,6 @@ export const testConfig = loadConfig({
   EF_STORAGE_DIR: path.join(PROJECT_ROOT, 'storage', process.env['EF_TEST_DB_NAME'] ?? 'etchfile_test'),
   EF_CLIENT_DIR: path.join(PROJECT_ROOT, 'dist', 'client', 'browser'),
   EF_LOG_LEVEL: process.env['EF_TEST_LOG_LEVEL'] ?? 'silent',
+  // Notification mail retried after about a second (then 2, 4… s), so an outage test finishes quickly.
+  EF_MAIL_RETRY_SECONDS: '1',
 });
