@@ -168,3 +168,40 @@ export function layerThickness(first: readonly Point[], second: readonly Point[]
   const maxUm = samplesUm.reduce((a, b) => Math.max(a, b), -Infinity);
   return { samplesUm, meanUm: stats.mean, sUm: stats.s, minUm, maxUm };
 }
+
+/**
+ * The parts of a segment whose distance to the nearest of `lines` lies within [minDist, maxDist]
+ * (a sub-band such as 0-20 µm from the interfaces, in the points' units). The distance along a
+ * segment is piecewise smooth, so it is stepped every `step` and each change refined by bisection.
+ */
+export function clipSegmentByDistance(a: Point, b: Point, lines: readonly (readonly Point[])[], minDist: number, maxDist: number, step = 0.25): [Point, Point][] {
+  const at = (t: number): Point => [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
+  const inRange = (t: number) => {
+    const d = lines.reduce((best, l) => Math.min(best, distanceToPolyline(at(t), l)), Infinity);
+    return d >= minDist && d <= maxDist;
+  };
+  const n = Math.max(1, Math.ceil(Math.hypot(b[0] - a[0], b[1] - a[1]) / step));
+  const pieces: [Point, Point][] = [];
+  let start: number | null = inRange(0) ? 0 : null;
+  let prev = start !== null;
+  for (let i = 1; i <= n; i++) {
+    const now = inRange(i / n);
+    if (now !== prev) {
+      let [lo, hi] = [(i - 1) / n, i / n];
+      for (let k = 0; k < 50; k++) {
+        const mid = (lo + hi) / 2;
+        if (inRange(mid) === prev) lo = mid;
+        else hi = mid;
+      }
+      const edge = (lo + hi) / 2;
+      if (now) start = edge;
+      else if (start !== null) {
+        if (edge > start) pieces.push([at(start), at(edge)]);
+        start = null;
+      }
+      prev = now;
+    }
+  }
+  if (start !== null && start < 1) pieces.push([at(start), at(1)]);
+  return pieces;
+}

@@ -83,3 +83,44 @@ export function clipToRect(a: Point, b: Point, width: number, height: number): [
 export function spacingForCount(count: number, acrossPx: number, umPerPx: number): number {
   return (acrossPx / (count + 1)) * umPerPx;
 }
+
+/** Whether a point lies inside a closed ring (even-odd rule; the ring is not repeated at its end). */
+export function pointInRing(p: Point, ring: readonly Point[]): boolean {
+  let inside = false;
+  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+    const [xi, yi] = ring[i]!;
+    const [xj, yj] = ring[j]!;
+    if (yi > p[1] !== yj > p[1] && p[0] < xj + ((p[1] - yj) / (yi - yj)) * (xi - xj)) inside = !inside;
+  }
+  return inside;
+}
+
+/**
+ * The parts of a segment inside an outline (a region drawn as a polygon or rectangle): split at
+ * every crossing with an edge, keep the pieces whose midpoints lie inside. Exact for straight edges.
+ */
+export function clipSegmentToRing(a: Point, b: Point, ring: readonly Point[]): [Point, Point][] {
+  const [dx, dy] = [b[0] - a[0], b[1] - a[1]];
+  const ts = [0, 1];
+  for (let i = 0; i < ring.length; i++) {
+    const p = ring[i]!;
+    const q = ring[(i + 1) % ring.length]!;
+    const [ex, ey] = [q[0] - p[0], q[1] - p[1]];
+    const denom = dx * ey - dy * ex;
+    if (denom === 0) continue; // parallel: a collinear overlap adds no crossing
+    const t = ((p[0] - a[0]) * ey - (p[1] - a[1]) * ex) / denom;
+    const u = ((p[0] - a[0]) * dy - (p[1] - a[1]) * dx) / denom;
+    if (t > 0 && t < 1 && u >= 0 && u <= 1) ts.push(t);
+  }
+  ts.sort((x, y) => x - y);
+  const at = (t: number): Point => [a[0] + t * dx, a[1] + t * dy];
+  const pieces: [Point, Point][] = [];
+  for (let i = 1; i < ts.length; i++) {
+    const [t0, t1] = [ts[i - 1]!, ts[i]!];
+    if (t1 - t0 < 1e-12 || !pointInRing(at((t0 + t1) / 2), ring)) continue;
+    const last = pieces[pieces.length - 1];
+    if (last && Math.abs(last[1][0] - at(t0)[0]) < 1e-9 && Math.abs(last[1][1] - at(t0)[1]) < 1e-9) last[1] = at(t1);
+    else pieces.push([at(t0), at(t1)]);
+  }
+  return pieces;
+}

@@ -19,3 +19,19 @@ export function pointFraction(field: PointCountField): number {
 export function volumeFraction(fields: readonly PointCountField[]): FieldStatistics {
   return fieldStatistics(fields.map(pointFraction));
 }
+
+/**
+ * A square point grid over a `width` × `height` image, `spacing` apart (same units), centred on the
+ * image like the line patterns and moved by `offset`; only points on the image are returned.
+ */
+export function gridPoints(width: number, height: number, spacing: number, offset: readonly [number, number] = [0, 0]): [number, number][] {
+  if (!(spacing > 0)) throw new RangeError('The grid spacing must be above 0.');
+  const axis = (size: number, shift: number) => {
+    const centre = size / 2 + shift;
+    const out: number[] = [];
+    for (let k = Math.ceil(-centre / spacing); centre + k * spacing <= size; k++) out.push(centre + k * spacing);
+    return out;
+  };
+  const xs = axis(width, offset[0]);
+  return axis(height, offset[1]).flatMap((y) => xs.map((x) => [x, y] as [number, number]));
+}
