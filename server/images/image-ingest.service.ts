@@ -53,8 +53,10 @@ export class ImageIngestService {
       await this.ctx.files.delete(originalKey);
       throw err;
     }
+    // Read before waking the worker, so the answer shows the state the request left (queued).
+    const image = await new ImagesService(this.ctx).detail(projectId, imageId);
     this.ctx.jobs.nudge();
-    return { image: await new ImagesService(this.ctx).detail(projectId, imageId), notices: notices(facts) };
+    return { image, notices: notices(facts) };
   }
 
   private row(projectId: string, uploaderId: string, name: string, file: ReceivedFile, facts: ImageFacts, f: UploadFields, originalKey: string): Partial<Image> {

@@ -91,7 +91,9 @@ export class ImagesService {
       await m.update(Image, { id: imageId, state: 'failed' }, { state: 'queued', progress: 0, failureReason: null, updatedAt: new Date() });
       await this.ctx.jobs.enqueueDerivatives(imageId, m);
     });
+    // Read before waking the worker, so the answer shows the state the request left (queued).
+    const record = await this.detail(projectId, imageId);
     this.ctx.jobs.nudge();
-    return this.detail(projectId, imageId);
+    return record;
   }
 }

@@ -31,9 +31,10 @@ const PASSWORD = 'bench-password-long';
 const config = loadConfig({
   ...process.env,
   EF_MODE: 'local',
-  EF_DB_NAME: 'etchfile_bench',
+  EF_DB_NAME: process.env['EF_BENCH_DB_NAME'] ?? 'etchfile_bench',
   EF_PORT: process.env['EF_BENCH_PORT'] ?? '8291',
-  EF_SMTP_PORT: process.env['EF_BENCH_SMTP_PORT'] ?? '2591',
+  // No mail is sent here, so no fake SMTP server (and no port to collide on).
+  EF_FAKE_SMTP: 'false',
   EF_STORAGE_DIR: path.join(PROJECT_ROOT, 'storage', 'etchfile_bench'),
   EF_LOG_LEVEL: 'warn',
 });
