@@ -1,6 +1,7 @@
 import { createLogger } from '../logger';
 import { loadConfig } from '../config';
 import { DEMO_ACCOUNTS } from '../demo/demo-accounts';
+import { loadDemoImagesOnce } from '../demo/demo-images';
 import { startServer } from '../main';
 import { buildClientIfStale } from './client-build';
 import { prepareDatabase } from './prepare-database';
@@ -11,6 +12,7 @@ const logger = createLogger(config);
 const cluster = await prepareDatabase(config, logger, { fresh: false, demo: config.local });
 buildClientIfStale();
 const running = await startServer(config, logger);
+if (config.local) await loadDemoImagesOnce(config, running.ctx.dataSource, logger);
 
 console.log(`\n  Etchfile is ready: ${config.publicUrl}\n`);
 if (config.local) {

@@ -1,16 +1,7 @@
 import sharp from 'sharp';
+import { seededRandom } from '../../server/demo/demo-micrographs';
 
-/** A seeded generator (mulberry32), so every run draws the same structure. */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 /** A Voronoi tessellation: the grain label of every pixel (nearest of `grains` random seeds). */
 export function voronoiLabels(width: number, height: number, grains: number, seed: number): Int32Array {
