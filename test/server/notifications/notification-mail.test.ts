@@ -1,0 +1,33 @@
+import { expect } from 'chai';
+import { composeDigest, composeSingle, type MailableNotification } from '../../../server/notifications/notification-mail';
+
+const item = (n: number, projectCode = 'KV-LAM-24'): MailableNotification => ({
+  kind: 'review_requested',
+  projectId: 'p1',
+  imageId: `image-${n}`,
+  threadId: null,
+  facts: { projectCode, imageName: `ARB-${n}-P1-L_050x.tif`, actorName: 'Joaquim Veldterra' },
+});
+
+describe('notifications: mail wording', () => {
+  it('when a public address ends in a slash, then links do not double it', () => {
+    const mail = composeSingle({ ...item(1), kind: 'mention', threadId: 't9', facts: { ...item(1).facts, excerpt: 'See the crack.' } }, 'Maren', 'https://lab.example.test/');
+    expect(mail.subject).to.equal('[KV-LAM-24] Joaquim Veldterra mentioned you on ARB-1-P1-L_050x.tif');
+    expect(mail.text).to.contain('Open it: https://lab.example.test/projects/p1/images/image-1/view?thread=t9\n');
+    expect(mail.text).to.contain('“See the crack.”');
+  });
+
+  it('when a digest gathers items of two projects, then they are grouped under each project code', () => {
+    const mail = composeDigest([item(1), item(2, 'KV-OXI-25'), item(3)], 'Sefa', 'https://lab.example.test');
+    expect(mail.subject).to.equal('Etchfile daily digest: 3 notifications');
+    expect(mail.text.indexOf('KV-LAM-24\n- Joaquim Veldterra submitted ARB-1')).to.be.lessThan(mail.text.indexOf('- Joaquim Veldterra submitted ARB-3'));
+    expect(mail.text).to.contain('KV-OXI-25\n- Joaquim Veldterra submitted ARB-2-P1-L_050x.tif for review\n  https://lab.example.test/projects/p1/images/image-2/view');
+  });
+
+  it('when a digest holds more than 100 items, then it lists 100 and counts the rest', () => {
+    const mail = composeDigest(Array.from({ length: 105 }, (_, i) => item(i)), 'Sefa', 'https://lab.example.test');
+    expect(mail.subject).to.equal('Etchfile daily digest: 105 notifications');
+    expect(mail.text.match(/^- /gm)).to.have.length(100);
+    expect(mail.text).to.contain('…and 5 more; open Etchfile to see them all.');
+  });
+});
