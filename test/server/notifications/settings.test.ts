@@ -1,4 +1,5 @@
 import { expect } from 'chai';
+import type { NotificationSettings } from '../../../shared/notifications';
 import { ApiClient, mountApp } from '../../support/api-client';
 import { makeUser, signedIn } from '../../support/fixtures';
 import { runningServer } from '../../support/test-server';
@@ -13,7 +14,7 @@ describe('notifications: each person’s delivery settings', () => {
   before(async () => (app = await mountApp()));
   after(() => app.close());
 
-  const put = (c: ApiClient, body: unknown) => c.request('PUT', PATH, body);
+  const put = (c: ApiClient, body: unknown) => c.request<NotificationSettings>('PUT', PATH, body);
   const stored = (userId: string) => sql('SELECT delivery, updated_at FROM notification_settings WHERE user_id = $1', [userId]);
 
   it('when someone has never chosen, then they get each notification as it happens', async () => {
@@ -29,7 +30,7 @@ describe('notifications: each person’s delivery settings', () => {
     const daily = await put(client, { delivery: 'daily' });
     expect(daily.status).to.equal(200);
     expect(daily.body.delivery).to.equal('daily');
-    expect(Date.parse(daily.body.updatedAt)).to.be.closeTo(Date.now(), 60_000);
+    expect(Date.parse(daily.body.updatedAt ?? '')).to.be.closeTo(Date.now(), 60_000);
     expect((await put(client, { delivery: 'off' })).body.delivery).to.equal('off');
 
     expect((await client.get(PATH)).body.delivery).to.equal('off');
