@@ -3,7 +3,7 @@ import type { ApiResponse } from '../../support/api-client';
 import { mountApp } from '../../support/api-client';
 import { makeImageRow } from '../../support/catalogue-fixtures';
 import { sql } from '../db-state';
-import { clearImage, move, notificationsFor, reviewRecords, reviewScene, stateOf, threadsPath, type ReviewScene } from './review-fixtures';
+import { clearImage, measurementRow, move, notificationsFor, reviewRecords, reviewScene, stateOf, threadsPath, type ReviewScene } from './review-fixtures';
 
 /** One way of editing what a review covers: what to prepare before clearing, and the edit itself (as the researcher). */
 interface EditCase {
@@ -36,6 +36,12 @@ const EDITS: EditCase[] = [
       s.researcher.raw('POST', `${annotations(s, id)}.geojson`, JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', geometry: { type: 'Point', coordinates: [20, 20] }, properties: { class: 'Pore' } }] }), {
         'content-type': 'application/geo+json',
       }),
+  },
+  {
+    title: 'a deleted measurement',
+    note: 'changed the measurements',
+    prepare: (s, id) => measurementRow(s, id),
+    edit: (s, id, measurementId) => s.researcher.delete(`/api/projects/${s.projectId}/images/${id}/measurements/${measurementId}?version=1`),
   },
 ];
 

@@ -57,7 +57,7 @@ export async function measurementRow(s: ReviewScene, imageId: string, umPerPx = 
   const [row] = await sql<{ id: string }>(
     `INSERT INTO measurements (project_id, image_id, kind, definition, layout, result, where_label, um_per_px, pixel_size_source, author_id, updated_by)
      VALUES ($1, $2, 'intercept', $3, '{}', $4, 'layer 2', $5, 'user', $6, $6) RETURNING id`,
-    [s.projectId, imageId, JSON.stringify({ kind: 'intercept', pattern: 'lines' }), JSON.stringify({ meanInterceptUm: 20.1 }), umPerPx, s.people.researcher.id],
+    [s.projectId, imageId, JSON.stringify({ kind: 'intercept', pattern: 'lines' }), JSON.stringify({ kind: 'intercept', meanInterceptUm: 20.1, g: 8.0 }), umPerPx, s.people.researcher.id],
   );
   return row!.id;
 }
