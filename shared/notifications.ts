@@ -18,6 +18,7 @@ export const NOTIFICATION_KIND_LABELS: Record<NotificationKind, string> = {
 export const DELIVERY_MODES = ['immediate', 'daily', 'off'] as const;
 export type DeliveryMode = (typeof DELIVERY_MODES)[number];
 
+/** How each mode reads in the settings form. */
 export const DELIVERY_MODE_LABELS: Record<DeliveryMode, string> = {
   immediate: 'Each one as it happens',
   daily: 'One daily digest',
@@ -33,6 +34,7 @@ export interface NotificationSettings {
   updatedAt: string | null;
 }
 
+/** PUT /api/me/notification-settings */
 export const notificationSettingsBody = z.strictObject({
   delivery: z.enum(DELIVERY_MODES, { error: 'Choose immediate, daily or off.' }),
 });

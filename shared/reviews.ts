@@ -20,6 +20,7 @@ export const REVIEW_STATE_LABELS: Record<ReviewState, string> = {
   cleared: 'Cleared for publication',
 };
 
+/** The moves between states, as the routes name them (…/review/submit, /request-changes, /clear, /reopen). */
 export const REVIEW_TRANSITIONS = ['submit', 'requestChanges', 'clear', 'reopen'] as const;
 export type ReviewTransition = (typeof REVIEW_TRANSITIONS)[number];
 
@@ -62,6 +63,7 @@ export function availableTransitions(state: ReviewState, allowed: readonly Proje
   return REVIEW_TRANSITIONS.filter((t) => TRANSITION_RULES[t].from.includes(state) && allowed.includes(TRANSITION_RULES[t].action));
 }
 
+/** A person as the review screens show them. */
 export interface PersonRef {
   id: string;
   name: string;
@@ -184,15 +186,19 @@ const mentions = z
   .default([])
   .transform((ids) => [...new Set(ids)]);
 
+/** POST …/images/:imageId/threads: where to pin it, the first comment, and who to mention. */
 export const newThreadBody = z.strictObject({ anchor: threadAnchor, body: commentText, mentions });
 export type NewThreadBody = z.infer<typeof newThreadBody>;
 
+/** POST …/threads/:threadId/comments: a reply. */
 export const commentBody = z.strictObject({ body: commentText, mentions });
 export type CommentBody = z.infer<typeof commentBody>;
 
+/** GET …/images/:imageId/threads: all threads, or only open or resolved ones. */
 export const threadListQuery = z.strictObject({ status: z.enum([...THREAD_STATUSES, 'all']).default('all') });
 export type ThreadListQuery = z.infer<typeof threadListQuery>;
 
+/** One comment of a thread, with the members it mentions by name. */
 export interface ThreadComment {
   id: string;
   threadId: string;
@@ -202,6 +208,7 @@ export interface ThreadComment {
   createdAt: string;
 }
 
+/** A thread pinned to an image, with all its comments. */
 export interface CommentThread {
   id: string;
   projectId: string;
@@ -225,6 +232,7 @@ export interface CommentCounts {
   images: Record<string, number>;
 }
 
+/** GET …/comment-counts: optionally only for these images (repeated or comma-separated ids). */
 export const commentCountsQuery = z.strictObject({
   imageId: optionalList(z.uuid({ error: 'Not a valid image id.' }), 200),
 });

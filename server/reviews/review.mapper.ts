@@ -11,6 +11,7 @@ import type { Comment } from './comment.entity';
 import type { ReviewEvent } from './review-event.entity';
 import type { ReviewSnapshot } from './review-snapshot.entity';
 
+/** A user as a name with its id. */
 export function toPerson(u: User): PersonRef {
   return { id: u.id, name: u.displayName };
 }
