@@ -42,7 +42,8 @@ describe('client: image display, pixel size', () => {
     expect(text).to.match(/^x 0\.2500 .*y 0\.5000 µm\/px$/);
   });
 
-  it('calls the image uncalibrated when either axis is unknown', () => {
+  it('calls an image without a pixel size uncalibrated', () => {
+    expect(formatPixelSizeXY(null, null)).to.equal('uncalibrated');
     expect(formatPixelSizeXY(null, 0.25)).to.equal('uncalibrated');
   });
 });
