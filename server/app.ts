@@ -9,6 +9,7 @@ import type { AppContext } from './app-context';
 import { authRouter } from './auth/auth.routes';
 import { calibrationRouter } from './calibration/calibration.routes';
 import { createPassport } from './auth/passport-setup';
+import { figuresRouter } from './figures/figures.routes';
 import { healthRouter } from './health/health.routes';
 import { imagesRouter } from './images/images.routes';
 import { measurementsRouter } from './measurements/measurements.routes';
@@ -46,6 +47,7 @@ export function createApp(ctx: AppContext): Express {
   api.use('/projects/:projectId', calibrationRouter(ctx));
   api.use('/projects/:projectId', measurementsRouter(ctx));
   api.use('/projects/:projectId', activityRouter(ctx));
+  api.use('/projects/:projectId', figuresRouter(ctx));
   api.use('/projects/:projectId', reviewsRouter(ctx));
   api.use('/projects/:projectId/images', imagesRouter(ctx));
   api.use('/admin', adminRouter(ctx));

@@ -11,6 +11,8 @@ import { CalibrationChange } from '../calibration/calibration-change.entity';
 import { CalibrationPreset } from '../calibration/calibration-preset.entity';
 import { PasswordToken } from '../auth/password-token.entity';
 import { User } from '../auth/user.entity';
+import { FigureExport } from '../figures/figure-export.entity';
+import { Figure } from '../figures/figure.entity';
 import { Image } from '../images/image.entity';
 import { MeasurementHistory } from '../measurements/measurement-history.entity';
 import { Measurement } from '../measurements/measurement.entity';
@@ -47,5 +49,7 @@ export const ENTITIES = [
   Measurement,
   MeasurementHistory,
   ActivityEvent,
+  Figure,
+  FigureExport,
   Review, ReviewEvent, ReviewSnapshot, CommentThread, Comment, Notification, NotificationSetting,
 ];

@@ -104,7 +104,8 @@ async function decoding<T>(step: () => Promise<T>): Promise<T> {
   }
 }
 
-async function download(files: FileStore, key: string, target: string): Promise<string> {
+/** Copies an original out of a store that has no local path (S3) into `target`. */
+export async function download(files: FileStore, key: string, target: string): Promise<string> {
   const stream = await files.get(key);
   if (!stream) throw new PermanentJobError('The original file is missing from storage.');
   const { createWriteStream } = await import('node:fs');

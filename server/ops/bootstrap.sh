@@ -30,5 +30,7 @@ apt_install() {
 
 if ! compgen -G "/usr/lib/postgresql/*/bin/initdb" >/dev/null; then apt_install postgresql; fi
 if $want_browser && ! command -v chromium >/dev/null; then apt_install chromium; fi
+# Figure exports draw their labels with DejaVu Sans (librsvg finds it through fontconfig).
+if ! compgen -G "/usr/share/fonts/truetype/dejavu/DejaVuSans*.ttf" >/dev/null; then apt_install fonts-dejavu-core; fi
 if $want_vips && ! command -v vips >/dev/null; then apt_install libvips-tools; fi
 exit 0

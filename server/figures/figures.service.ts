@@ -1,0 +1,114 @@
+import { randomUUID } from 'node:crypto';
+import { mkdir, rm, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { In, type EntityManager } from 'typeorm';
+import type { ExportFigureBody, Figure as FigureDto, FigureBody, UpdateFigureBody } from '../../shared/figures';
+import { recordActivity } from '../activity/record-activity';
+import { AnnotationClass } from '../annotations/annotation-class.entity';
+import type { AppContext } from '../app-context';
+import { AppError } from '../http/app-error';
+import { Image } from '../images/image.entity';
+import { FigureExport } from './figure-export.entity';
+import { Figure } from './figure.entity';
+import { renderFigure } from './figure-renderer';
+
+const toDto = (f: Figure): FigureDto => ({ id: f.id, projectId: f.projectId, title: f.title, ...f.spec, version: f.version, createdByName: f.creator.displayName, updatedAt: f.updatedAt.toISOString() });
+
+/** Figures keep their definition; every export renders the current annotations and is kept as a file. */
+export class FiguresService {
+  constructor(private readonly ctx: AppContext) {}
+
+  private get ds() {
+    return this.ctx.dataSource;
+  }
+
+  async list(projectId: string): Promise<FigureDto[]> {
+    return (await this.ds.getRepository(Figure).find({ where: { projectId }, relations: { creator: true }, order: { updatedAt: 'DESC' } })).map(toDto);
+  }
+
+  async get(projectId: string, figureId: string): Promise<FigureDto> {
+    return toDto(await this.find(this.ds.manager, projectId, figureId));
+  }
+
+  async create(user: Express.User, projectId: string, body: FigureBody): Promise<FigureDto> {
+    const id = await this.ds.transaction(async (m) => {
+      await this.checkPanels(m, projectId, body);
+      const { title, ...spec } = body;
+      const saved = await m.save(m.create(Figure, { projectId, title, spec, createdBy: user.id }));
+      await recordActivity(m, { projectId, actorId: user.id, action: 'catalogue.created', summary: `composed the figure “${title}”` });
+      return saved.id;
+    });
+    return this.get(projectId, id);
+  }
+
+  async update(user: Express.User, projectId: string, figureId: string, body: UpdateFigureBody): Promise<FigureDto> {
+    await this.ds.transaction(async (m) => {
+      const figure = await this.find(m, projectId, figureId);
+      const { version, title, ...changes } = body;
+      const next = { title: title ?? figure.title, ...figure.spec, ...changes };
+      await this.checkPanels(m, projectId, next);
+      const result = await m
+        .createQueryBuilder()
+        .update(Figure)
+        .set({ title: next.title, spec: { columns: next.columns, gapMm: next.gapMm, commonScaleBar: next.commonScaleBar, panels: next.panels }, version: () => 'version + 1' })
+        .where('id = :figureId AND version = :version', { figureId, version })
+        .execute();
+      if (result.affected !== 1) throw AppError.conflict(`Someone changed this figure after you loaded it (you had version ${version}, it is now ${figure.version}). Reload, then edit again.`);
+      await recordActivity(m, { projectId, actorId: user.id, action: 'catalogue.updated', summary: `edited the figure “${next.title}”` });
+    });
+    return this.get(projectId, figureId);
+  }
+
+  async remove(user: Express.User, projectId: string, figureId: string): Promise<void> {
+    await this.ds.transaction(async (m) => {
+      const figure = await this.find(m, projectId, figureId);
+      await m.delete(Figure, { id: figureId });
+      await recordActivity(m, { projectId, actorId: user.id, action: 'catalogue.deleted', summary: `deleted the figure “${figure.title}”` });
+    });
+  }
+
+  /** Renders, keeps the file under the figure, and returns it with its record. */
+  async export(user: Express.User, projectId: string, figureId: string, body: ExportFigureBody): Promise<{ record: FigureExport; file: Buffer; name: string }> {
+    const figure = await this.find(this.ds.manager, projectId, figureId);
+    const file = await renderFigure(this.ctx, this.ds.manager, projectId, { title: figure.title, ...figure.spec }, body);
+    const exportId = randomUUID();
+    const ext = body.format === 'png' ? 'png' : 'tif';
+    const key = `projects/${projectId}/figures/${figureId}/exports/${exportId}.${ext}`;
+    const tmp = path.join(this.ctx.config.storageDir, 'tmp', 'figures', `${exportId}.${ext}`);
+    await mkdir(path.dirname(tmp), { recursive: true });
+    await writeFile(tmp, file);
+    try {
+      await this.ctx.files.putFile(key, tmp, body.format === 'png' ? 'image/png' : 'image/tiff');
+    } finally {
+      await rm(tmp, { force: true });
+    }
+    const record = await this.ds.getRepository(FigureExport).save({
+      id: exportId, figureId, figureVersion: figure.version, format: body.format, widthMm: body.widthMm, dpi: body.dpi, storageKey: key, byteSize: String(file.length), createdBy: user.id,
+    });
+    const name = `${figure.title.replace(/[^\p{L}\p{N}._-]+/gu, '_').slice(0, 80)}_v${figure.version}_${body.widthMm}mm_${body.dpi}dpi.${ext}`;
+    return { record, file, name };
+  }
+
+  private async find(m: EntityManager, projectId: string, figureId: string): Promise<Figure> {
+    const figure = await m.findOne(Figure, { where: { id: figureId, projectId }, relations: { creator: true } });
+    if (!figure) throw AppError.notFound('The figure');
+    return figure;
+  }
+
+  /** Panels must show this project's images, inside their bounds, with this project's classes. */
+  private async checkPanels(m: EntityManager, projectId: string, spec: Pick<FigureBody, 'panels'>): Promise<void> {
+    const images = new Map((await m.findBy(Image, { id: In(spec.panels.map((p) => p.imageId)), projectId })).map((i) => [i.id, i]));
+    const classes = new Set((await m.findBy(AnnotationClass, { projectId })).map((c) => c.id));
+    const problems = spec.panels.flatMap((p, i) => {
+      const image = images.get(p.imageId);
+      if (!image) return [{ field: `body.panels.${i}.imageId`, message: 'Not an image of this project.' }];
+      const out: { field: string; message: string }[] = [];
+      if (p.region.x + p.region.width > image.width || p.region.y + p.region.height > image.height) {
+        out.push({ field: `body.panels.${i}.region`, message: `The region reaches outside the image (${image.width} × ${image.height} px).` });
+      }
+      if (p.classIds.some((c) => !classes.has(c))) out.push({ field: `body.panels.${i}.classIds`, message: 'Not a class of this project.' });
+      return out;
+    });
+    if (problems.length > 0) throw new AppError(422, 'validation_failed', `Check ${problems[0]!.field}: ${problems[0]!.message}`, problems);
+  }
+}
