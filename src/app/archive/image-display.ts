@@ -49,11 +49,13 @@ export function formatBytes(bytes: number): string {
   const units = ['KiB', 'MiB', 'GiB', 'TiB'];
   let value = bytes / 1024;
   let unit = 0;
-  while (value >= 1024 && unit < units.length - 1) {
+  const shown = (v: number) => (v >= 100 ? String(Math.round(v)) : v.toFixed(1));
+  // Move up a unit when the number as written would reach 1024 (1048575 B is "1.0 MiB", not "1024 KiB").
+  while (Number(shown(value)) >= 1024 && unit < units.length - 1) {
     value /= 1024;
     unit += 1;
   }
-  return `${value >= 100 ? Math.round(value) : value.toFixed(1)} ${units[unit]}`;
+  return `${shown(value)} ${units[unit]}`;
 }
 
 /** One phrase for where an image is in processing: "queued", "processing 40 %", "ready", "failed: reason". */

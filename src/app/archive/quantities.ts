@@ -25,11 +25,13 @@ export function significant(value: number, digits = 3): string {
 export function formatThickness(mm: number): string {
   if (!Number.isFinite(mm)) return '–';
   if (mm === 0) return '0 mm';
-  const um = mm * 1000;
-  // Compare the rounded numbers, so 0.09999 mm reads "0.100 mm" rather than "100 µm" (three figures either way).
-  if (Number(mm.toPrecision(3)) >= 0.1) return `${significant(mm)} mm`;
-  if (Number(um.toPrecision(3)) >= 1) return `${significant(um)} µm`;
-  return `${significant(um * 1000)} nm`;
+  // Round once, in the smaller unit, and pick the unit from that rounded number: rounding in two
+  // units can disagree at half-way values (0.09995 mm), and then unit and text would not match.
+  const um = Number((mm * 1000).toPrecision(3));
+  if (um >= 100) return `${significant(um / 1000)} mm`;
+  const nm = Number((mm * 1e6).toPrecision(3));
+  if (nm >= 1000) return `${significant(nm / 1000)} µm`;
+  return `${significant(nm)} nm`;
 }
 
 /** A fraction (0.875) as a percentage with one decimal ("87.5 %"); whole numbers lose the ".0". */

@@ -65,7 +65,7 @@ describe('client: quantities, thickness in the unit that suits it', () => {
     expect(formatThickness(0.000_999_51)).to.equal('1.00 µm');
   });
 
-  it.skip('reads 0.09995 mm as 0.100 mm, not 100 µm (bug: unit is chosen from the mm rounding, text from the µm rounding)', () => {
+  it('reads 0.09995 mm as 0.100 mm, not 100 µm (one rounding decides unit and text)', () => {
     expect(formatThickness(0.09995)).to.equal('0.100 mm');
     expect(formatThickness(0.0009995)).to.equal('1.00 µm');
   });
