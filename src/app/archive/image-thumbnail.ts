@@ -35,6 +35,9 @@ import { formatMagnification, formatPixelSize, processingText } from './image-di
     <div class="caption">
       <a class="name" [routerLink]="link()">{{ image().originalName }}</a>
       <span class="facts ef-number">{{ facts() }}</span>
+      @if (image().processing.state === 'ready') {
+        <a class="viewer-link" [routerLink]="viewerLink()" [attr.aria-label]="'Open ' + image().originalName + ' in viewer'">Open in viewer</a>
+      }
       @if (image().processing.state === 'failed') {
         <span class="reason" role="alert">{{ stateText() }}</span>
         @if (canRetry()) {
@@ -98,6 +101,10 @@ import { formatMagnification, formatPixelSize, processingText } from './image-di
     .name:focus-visible {
       text-decoration: underline;
     }
+    .viewer-link {
+      color: var(--mat-sys-primary);
+      font: var(--mat-sys-label-medium);
+    }
     .facts,
     .reason {
       font: var(--mat-sys-body-small);
@@ -116,6 +123,7 @@ export class ImageThumbnail {
   readonly retry = output<string>();
 
   protected readonly link = computed(() => ['/projects', this.image().projectId, 'images', this.image().id]);
+  protected readonly viewerLink = computed(() => [...this.link(), 'view']);
   protected readonly thumbnailUrl = computed(() => this.api.thumbnailUrl(this.image().projectId, this.image().id));
   protected readonly stateText = computed(() => processingText(this.image().processing));
   protected readonly facts = computed(() => {

@@ -1,19 +1,14 @@
 import type Konva from 'konva';
-import type { Context } from 'konva/lib/Context';
 import type { Coordinates } from '../../../shared/annotations/annotations';
 import type { Viewport } from '../../../shared/viewer/viewport';
-import { boundsIntersect, NOTE_MAX_CHARS, POINT_RADIUS_PX, type Bounds } from './hit-test';
+import { NOTE_MAX_CHARS, POINT_RADIUS_PX, type Bounds } from './hit-test';
 import { measurementLabel } from './measurements';
+import { batchShapes, type ShapeBatch } from './shape-batches';
 import type { ViewShape } from './view-shapes';
 
 type KonvaModule = typeof Konva;
 
-/** What a shape is drawn with. */
-export interface ShapeStyle {
-  colour: string;
-}
-
-/** Shared with every node's draw function: the view in image pixels and the zoom. */
+/** The view in image pixels and the zoom, for culling and screen-sized marks. */
 interface DrawState {
   scale: number;
   visible: Bounds;
@@ -25,16 +20,21 @@ const LABEL_FONT = '500 12px "IBM Plex Sans", system-ui, sans-serif';
 
 /**
  * All annotations on one layer that never listens (hits are found in image pixels, see
- * hit-test.ts). Nodes carry image coordinates; the layer's transform does the zoom, so a pan
- * or zoom redraws without touching a single shape. Each node skips itself when out of view.
+ * hit-test.ts), drawn by one node in batches: per colour, one path for the fills, one for the
+ * strokes, one for the markers (see shape-batches.ts). Coordinates stay in image pixels; the
+ * layer's transform does the zoom, and shapes out of view are left out.
  */
 export class ShapeLayer {
   readonly layer: Konva.Layer;
-  private readonly nodes = new Map<string, Konva.Shape>();
   private readonly state: DrawState = { scale: 1, visible: { minX: 0, minY: 0, maxX: 0, maxY: 0 }, umPerPx: null };
+  private shapes: readonly ViewShape[] = [];
+  private colourOf: (s: ViewShape) => string = () => '#7a8894';
+  private shown: (s: ViewShape) => boolean = () => true;
+  private hiddenKey: string | null = null;
 
-  constructor(private readonly K: KonvaModule) {
+  constructor(K: KonvaModule) {
     this.layer = new K.Layer({ listening: false });
+    this.layer.add(new K.Shape({ listening: false, perfectDrawEnabled: false, shadowForStrokeEnabled: false, sceneFunc: (ctx) => this.draw(ctx._context) }));
   }
 
   setViewport(v: Viewport): void {
@@ -48,50 +48,89 @@ export class ShapeLayer {
     this.state.umPerPx = umPerPx;
   }
 
-  /** Brings the nodes in line with the list: new, changed (by identity), gone, order, visibility. */
-  sync(shapes: readonly ViewShape[], styleOf: (s: ViewShape) => ShapeStyle, shown: (s: ViewShape) => boolean, hiddenKey: string | null): void {
-    const keep = new Set<string>();
-    let orderChanged = false;
-    shapes.forEach((s, i) => {
-      keep.add(s.key);
-      let node = this.nodes.get(s.key);
-      if (!node) {
-        node = new this.K.Shape({ listening: false, perfectDrawEnabled: false, shadowForStrokeEnabled: false, sceneFunc: (ctx, n) => this.draw(ctx, n) });
-        this.layer.add(node);
-        this.nodes.set(s.key, node);
-        orderChanged = true;
-      }
-      if (node.getAttr('shape') !== s) node.setAttr('shape', s);
-      node.setAttr('colour', styleOf(s).colour);
-      node.visible(shown(s) && s.key !== hiddenKey);
-      if (node.index !== i) orderChanged = true;
-    });
-    for (const [key, node] of this.nodes) {
-      if (keep.has(key)) continue;
-      node.destroy();
-      this.nodes.delete(key);
-      orderChanged = true;
-    }
-    if (orderChanged) shapes.forEach((s, i) => this.nodes.get(s.key)?.zIndex(i));
+  /** What to draw: the shapes in order, their colours, which are shown, and one left to the overlay while it is dragged. */
+  sync(shapes: readonly ViewShape[], colourOf: (s: ViewShape) => string, shown: (s: ViewShape) => boolean, hiddenKey: string | null): void {
+    this.shapes = shapes;
+    this.colourOf = colourOf;
+    this.shown = shown;
+    this.hiddenKey = hiddenKey;
   }
 
   destroy(): void {
     this.layer.destroy();
   }
 
-  private draw(ctx: Context, node: Konva.Shape): void {
-    const s = node.getAttr('shape') as ViewShape;
-    if (!boundsIntersect(s.bounds, this.state.visible)) return;
-    drawShape(ctx._context, node.getLayer()!.getCanvas().getPixelRatio(), this.state.scale, s.kind, s.points, s.label, node.getAttr('colour'), {
-      label: s.kind === 'ruler' || s.kind === 'angle' ? measurementLabel(s.kind, s.points, this.state.umPerPx) : '',
-      pending: s.pending,
-    });
+  private draw(c: CanvasRenderingContext2D): void {
+    const pr = this.layer.getCanvas().getPixelRatio();
+    const { scale, visible, umPerPx } = this.state;
+    const { batches, labelled, count } = batchShapes(this.shapes, visible, this.shown, this.hiddenKey, this.colourOf);
+    const dense = count > DENSE_SHAPES;
+    for (const b of batches) drawBatch(c, scale, b, dense);
+    if (dense && labelled.length > MAX_LABELS) return;
+    for (const s of labelled) {
+      const colour = this.colourOf(s);
+      if (s.kind === 'text') screenText(c, pr, s.points[0]!, truncate(s.label), colour, 'note');
+      else screenText(c, pr, labelAnchor(s.kind, s.points), measurementLabel(s.kind, s.points, umPerPx), colour, 'measure');
+    }
+  }
+}
+
+/** Above this many shapes in view, edges are drawn as thin lines without halo: software canvases rasterise hairlines far faster. */
+const DENSE_SHAPES = 400;
+/** Above this many labels in a dense view, labels are left out (they would cover each other anyway). */
+const MAX_LABELS = 150;
+
+/**
+ * One colour's shapes. Widths are divided by the zoom because the path stays in image pixels
+ * (no transform reset per shape); one screen pixel wide edges take the canvas's hairline path.
+ */
+function drawBatch(c: CanvasRenderingContext2D, scale: number, b: ShapeBatch, dense: boolean): void {
+  const px = 1 / scale;
+  c.lineJoin = 'round';
+  c.lineCap = 'round';
+  c.setLineDash(b.pending ? [6 * px, 4 * px] : []);
+  c.fillStyle = `${b.colour}2e`;
+  for (const s of [...b.outlines, ...b.lines]) {
+    c.beginPath();
+    pathThrough(c, s.points);
+    const closed = s.kind === 'polygon' || s.kind === 'rectangle';
+    if (closed) {
+      c.closePath();
+      c.fill();
+    }
+    if (s.kind === 'ruler' && s.points.length === 2) rulerEnds(c, scale, s.points);
+    if (s.kind === 'angle' && s.points.length === 3) angleArc(c, scale, s.points);
+    if (!dense) {
+      c.lineWidth = 4 * px;
+      c.strokeStyle = HALO;
+      c.stroke();
+    }
+    c.lineWidth = (dense ? 1 : 2) * px;
+    c.strokeStyle = b.colour;
+    c.stroke();
+  }
+  if (b.markers.length === 0) return;
+  const r = POINT_RADIUS_PX * px;
+  c.fillStyle = b.colour;
+  if (dense) {
+    // Small squares: the cheapest mark that still shows where each point is.
+    for (const s of b.markers) c.fillRect(s.points[0]![0] - 0.7 * r, s.points[0]![1] - 0.7 * r, 1.4 * r, 1.4 * r);
+    return;
+  }
+  c.strokeStyle = '#ffffff';
+  c.lineWidth = 1.5 * px;
+  for (const s of b.markers) {
+    c.beginPath();
+    c.arc(s.points[0]![0], s.points[0]![1], r, 0, Math.PI * 2);
+    c.fill();
+    c.stroke();
   }
 }
 
 /**
- * Draws one shape with the raw canvas context, whose transform maps image pixels to the screen.
- * Paths are built in image pixels; strokes, markers and text are sized in screen pixels.
+ * Draws one shape (the selection, the draft) with the raw canvas context, whose transform maps
+ * image pixels to the screen. Paths are built in image pixels; strokes, markers and text are
+ * sized in screen pixels.
  */
 export function drawShape(
   c: CanvasRenderingContext2D,
@@ -103,37 +142,24 @@ export function drawShape(
   colour: string,
   extra: { label: string; pending: boolean; width?: number },
 ): void {
-  const width = extra.width ?? 2;
   if (points.length === 0) return;
+  const width = extra.width ?? 2;
+  const marker = kind === 'point' || kind === 'text';
   c.beginPath();
-  if (kind === 'point' || kind === 'text') {
+  if (marker) {
     const [x, y] = points[0]!;
     c.arc(x, y, POINT_RADIUS_PX / scale, 0, Math.PI * 2);
-  } else if (kind === 'angle') {
-    pathThrough(c, points);
   } else {
     pathThrough(c, points);
     if (kind === 'polygon' || kind === 'rectangle') c.closePath();
+    if (kind === 'ruler' && points.length === 2) rulerEnds(c, scale, points);
+    if (kind === 'angle' && points.length === 3) angleArc(c, scale, points);
   }
-  c.save();
-  if (kind === 'polygon' || kind === 'rectangle' || kind === 'point' || kind === 'text') {
-    c.fillStyle = kind === 'point' || kind === 'text' ? colour : `${colour}2e`;
+  if (kind === 'polygon' || kind === 'rectangle' || marker) {
+    c.fillStyle = marker ? colour : `${colour}2e`;
     c.fill();
   }
-  // Strokes in screen pixels: the path is already transformed, so resetting the transform keeps it.
-  c.setTransform(pixelRatio, 0, 0, pixelRatio, 0, 0);
-  if (extra.pending) c.setLineDash([6, 4]);
-  c.lineJoin = 'round';
-  c.lineCap = 'round';
-  c.lineWidth = width + 2;
-  c.strokeStyle = HALO;
-  c.stroke();
-  c.lineWidth = kind === 'point' || kind === 'text' ? 1.5 : width;
-  c.strokeStyle = kind === 'point' || kind === 'text' ? '#ffffff' : colour;
-  c.stroke();
-  c.restore();
-  if (kind === 'ruler' && points.length === 2) drawRulerEnds(c, pixelRatio, scale, points, colour);
-  if (kind === 'angle' && points.length === 3) drawAngleArc(c, pixelRatio, scale, points, colour);
+  strokeScreen(c, pixelRatio, marker ? '#ffffff' : colour, marker ? 1.5 : width, extra.pending);
   const at = labelAnchor(kind, points);
   if (kind === 'text') screenText(c, pixelRatio, at, truncate(text), colour, 'note');
   else if (extra.label) screenText(c, pixelRatio, at, extra.label, colour, 'measure');
@@ -144,37 +170,41 @@ function pathThrough(c: CanvasRenderingContext2D, points: Coordinates): void {
   for (let i = 1; i < points.length; i++) c.lineTo(points[i]![0], points[i]![1]);
 }
 
-/** Short ticks across both ends of a ruler, 10 screen px long. */
-function drawRulerEnds(c: CanvasRenderingContext2D, pixelRatio: number, scale: number, [a, b]: Coordinates, colour: string): void {
+/** Adds short ticks across both ends of a ruler, 10 screen px long, to the current path. */
+function rulerEnds(c: CanvasRenderingContext2D, scale: number, [a, b]: Coordinates): void {
   const dx = b![0] - a![0];
   const dy = b![1] - a![1];
   const len = Math.hypot(dx, dy) || 1;
   const nx = (-dy / len) * (5 / scale);
   const ny = (dx / len) * (5 / scale);
-  c.beginPath();
   for (const [x, y] of [a!, b!]) {
     c.moveTo(x - nx, y - ny);
     c.lineTo(x + nx, y + ny);
   }
-  strokeScreen(c, pixelRatio, colour, 2);
 }
 
-/** A small arc at the vertex between the two rays. */
-function drawAngleArc(c: CanvasRenderingContext2D, pixelRatio: number, scale: number, [a, v, b]: Coordinates, colour: string): void {
+/** Adds a small arc at the vertex, between the two rays, to the current path. */
+function angleArc(c: CanvasRenderingContext2D, scale: number, [a, v, b]: Coordinates): void {
   const r = 18 / scale;
   const a1 = Math.atan2(a![1] - v![1], a![0] - v![0]);
   const a2 = Math.atan2(b![1] - v![1], b![0] - v![0]);
   let delta = a2 - a1;
   while (delta > Math.PI) delta -= 2 * Math.PI;
   while (delta < -Math.PI) delta += 2 * Math.PI;
-  c.beginPath();
+  c.moveTo(v![0] + r * Math.cos(a1), v![1] + r * Math.sin(a1));
   c.arc(v![0], v![1], r, a1, a1 + delta, delta < 0);
-  strokeScreen(c, pixelRatio, colour, 1.5);
 }
 
-function strokeScreen(c: CanvasRenderingContext2D, pixelRatio: number, colour: string, width: number): void {
+/**
+ * Strokes the current path in screen pixels with a dark halo under the colour, so lines read on
+ * bright and dark micrographs. The path is already transformed, so resetting the transform keeps it.
+ */
+function strokeScreen(c: CanvasRenderingContext2D, pixelRatio: number, colour: string, width: number, dashed: boolean): void {
   c.save();
   c.setTransform(pixelRatio, 0, 0, pixelRatio, 0, 0);
+  if (dashed) c.setLineDash([6, 4]);
+  c.lineJoin = 'round';
+  c.lineCap = 'round';
   c.lineWidth = width + 2;
   c.strokeStyle = HALO;
   c.stroke();

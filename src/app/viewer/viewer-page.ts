@@ -162,10 +162,7 @@ export default class ViewerPage implements OnDestroy {
     return 'Saving…';
   });
   protected readonly previewSrc = computed(() => previewUrl(this.projectId(), this.imageId()));
-  protected readonly backLink = computed(() => {
-    const img = this.image();
-    return img ? ['/projects', this.projectId(), 'specimens', img.specimenId] : ['/projects', this.projectId()];
-  });
+  protected readonly backLink = computed(() => ['/projects', this.projectId(), 'images', this.imageId()]);
 
   private stage: MicrographStage | null = null;
   private interaction: ViewerInteraction | null = null;
@@ -206,7 +203,7 @@ export default class ViewerPage implements OnDestroy {
     const hidden = this.hiddenClasses();
     const colours = this.colourById();
     if (!this.stageReady() || !this.stage) return;
-    this.stage.shapes.sync(shapes, (s) => ({ colour: colours.get(s.classId) ?? ANNOTATION_COLOURS.slate }), (s) => isShown(s, hidden), this.editing?.key ?? null);
+    this.stage.shapes.sync(shapes, (s) => colours.get(s.classId) ?? ANNOTATION_COLOURS.slate, (s) => isShown(s, hidden), this.editing?.key ?? null);
     this.stage.shapes.setCalibration(this.umPerPx());
     this.stage.invalidate('shapes');
     untracked(() => this.refreshOverlay());
@@ -527,7 +524,7 @@ export default class ViewerPage implements OnDestroy {
     if (was !== (this.editing?.key ?? null) && this.stage) {
       const hidden = this.hiddenClasses();
       const colours = this.colourById();
-      this.stage.shapes.sync(this.store.shapes(), (s) => ({ colour: colours.get(s.classId) ?? ANNOTATION_COLOURS.slate }), (s) => isShown(s, hidden), this.editing?.key ?? null);
+      this.stage.shapes.sync(this.store.shapes(), (s) => colours.get(s.classId) ?? ANNOTATION_COLOURS.slate, (s) => isShown(s, hidden), this.editing?.key ?? null);
       this.stage.invalidate('shapes');
     }
     this.refreshOverlay();
