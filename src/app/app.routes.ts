@@ -22,6 +22,7 @@ export const routes: Routes = [
       // Samples, specimens and images under their project. After `projects`, which keeps the list and the
       // project page: a componentless route placed first would also match /projects/:id and show nothing.
       { path: 'projects/:projectId', loadChildren: () => import('./archive/archive.routes') },
+      { path: 'review-queue', loadChildren: () => import('./reviews/reviews.routes') },
       { path: 'account', loadChildren: () => import('./auth/auth.routes').then((m) => m.accountRoutes) },
       { path: 'admin', canActivate: [adminGuard], loadChildren: () => import('./admin/admin.routes') },
     ],

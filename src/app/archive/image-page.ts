@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, viewChild } from '@angular/core';
 import { MatAnchor, MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
@@ -11,6 +11,9 @@ import { apiErrorMessage } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
 import { ProjectApi } from '../projects/project-api';
+import type { Mentionable } from '../reviews/comment-box';
+import { ReviewPanel } from '../reviews/review-panel';
+import { ThreadList } from '../reviews/thread-list';
 import { Breadcrumbs, type Crumb } from './breadcrumbs';
 import { ImageApi } from './image-api';
 import { anyInProgress, formatBytes, formatMagnification, processingText } from './image-display';
@@ -21,7 +24,7 @@ const POLL_MS = 2500;
 /** One micrograph: its preview, where it is filed, how it was made, and its scale. */
 @Component({
   selector: 'ef-image-page',
-  imports: [Breadcrumbs, DatePipe, MatAnchor, MatButton, MatIcon, MatProgressBar, PixelSizePanel, RouterLink],
+  imports: [Breadcrumbs, DatePipe, MatAnchor, MatButton, MatIcon, MatProgressBar, PixelSizePanel, ReviewPanel, RouterLink, ThreadList],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './image-page.html',
   styleUrl: './image-page.scss',
@@ -37,12 +40,18 @@ export default class ImagePage {
   readonly projectId = input.required<string>();
   readonly imageId = input.required<string>();
 
+  private readonly reviewPanel = viewChild(ReviewPanel);
+
   private readonly ids = computed(() => ({ projectId: this.projectId(), imageId: this.imageId() }));
   protected readonly project = remote(this.projectId, (id) => this.projectApi.get(id));
   protected readonly image = remote(this.ids, ({ projectId, imageId }) => this.api.get(projectId, imageId));
   protected readonly canEdit = computed(() => this.project.value()?.allowed.includes('editMetadata') ?? false);
   protected readonly canUpload = computed(() => this.project.value()?.allowed.includes('upload') ?? false);
   protected readonly canDelete = computed(() => this.project.value()?.allowed.includes('delete') ?? false);
+  protected readonly canComment = computed(() => this.project.value()?.allowed.includes('comment') ?? false);
+  protected readonly members = computed<Mentionable[]>(() =>
+    (this.project.value()?.members ?? []).map((m) => ({ id: m.userId, name: m.displayName, email: m.email })),
+  );
   protected readonly crumbs = computed<Crumb[]>(() => {
     const i = this.image.value();
     const p = this.projectId();
@@ -84,6 +93,8 @@ export default class ImagePage {
 
   protected showSaved(saved: ImageRecord): void {
     this.image.set(saved);
+    // A new pixel size returns a cleared image to draft.
+    this.reviewPanel()?.refresh();
   }
 
   protected retry(image: ImageRecord): void {

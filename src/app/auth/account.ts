@@ -8,6 +8,7 @@ import { apiErrorMessage } from '../core/api-error-message';
 import { applyServerErrors } from '../core/server-errors';
 import { SessionStore } from '../core/session-store';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
+import { NotificationSettings } from '../reviews/notification-settings';
 import { AuthApi } from './auth-api';
 import { ConfirmMatcher, passwordsMatch } from './password-match';
 import { PASSWORD_MAX, PASSWORD_MIN } from '../../../shared/auth-constants';
@@ -26,6 +27,7 @@ import { PASSWORD_MAX, PASSWORD_MIN } from '../../../shared/auth-constants';
     MatHint,
     MatInput,
     MatLabel,
+    NotificationSettings,
     ReactiveFormsModule,
     ValidationMessagePipe,
   ],

@@ -1,0 +1,92 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButton } from '@angular/material/button';
+import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatIcon } from '@angular/material/icon';
+import { MatInput } from '@angular/material/input';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import type { ReviewStatus, ReviewTransition } from '../../../shared/reviews';
+import { apiErrorMessage } from '../core/api-error-message';
+import { remote } from '../core/remote';
+import { applyServerErrors } from '../core/server-errors';
+import { ValidationMessagePipe } from '../core/validation-message-pipe';
+import { formatPixelSizeXY } from '../archive/image-display';
+import { ReviewApi } from './review-api';
+import { clearingBlocker, historyLine, moveLabel, reviewStateHint, reviewStateLabel, snapshotCounts } from './review-text';
+
+const NOTE_MAX = 2000;
+
+/** An image's review: where it stands, the moves the caller may make, its history and what was cleared. */
+@Component({
+  selector: 'ef-review-panel',
+  imports: [DatePipe, MatButton, MatError, MatFormField, MatHint, MatIcon, MatInput, MatLabel, MatProgressBar, ReactiveFormsModule, ValidationMessagePipe],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './review-panel.html',
+  styleUrl: './review-panel.scss',
+})
+export class ReviewPanel {
+  private readonly api = inject(ReviewApi);
+
+  readonly projectId = input.required<string>();
+  readonly imageId = input.required<string>();
+
+  private readonly ids = computed(() => ({ projectId: this.projectId(), imageId: this.imageId() }));
+  protected readonly status = remote(this.ids, ({ projectId, imageId }) => this.api.status(projectId, imageId));
+  protected readonly snapshots = remote(this.ids, ({ projectId, imageId }) => this.api.snapshots(projectId, imageId));
+  protected readonly form = new FormGroup({
+    note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(NOTE_MAX)] }),
+  });
+  protected readonly noteMax = NOTE_MAX;
+  protected readonly view = computed(() => {
+    const s = this.status.value();
+    if (!s) return null;
+    return {
+      state: s.state,
+      label: reviewStateLabel(s.state),
+      hint: reviewStateHint(s.state),
+      moves: s.transitions.map((move) => ({ move, label: moveLabel(move) })),
+      blocker: s.transitions.includes('clear') ? clearingBlocker(s.openThreads) : '',
+      history: [...s.history].reverse().map((e) => ({ ...e, line: historyLine(e) })),
+    };
+  });
+  protected readonly snapshotRows = computed(() =>
+    (this.snapshots.value() ?? []).map((s) => ({
+      id: s.id,
+      clearedAt: s.clearedAt,
+      clearedBy: s.clearedBy.name,
+      pixelSize: s.pixelSize.xUm === null ? 'not calibrated' : formatPixelSizeXY(s.pixelSize.xUm, s.pixelSize.yUm),
+      counts: snapshotCounts(s),
+    })),
+  );
+  protected readonly busy = signal(false);
+  protected readonly moveError = signal('');
+  protected readonly moved = signal('');
+
+  /** Loads again, e.g. after a thread was resolved (the open count decides whether clearing can work). */
+  refresh(): void {
+    this.status.reload();
+  }
+
+  protected makeMove(move: ReviewTransition): void {
+    if (this.busy() || this.form.invalid) return;
+    this.busy.set(true);
+    this.moveError.set('');
+    this.moved.set('');
+    this.api.move(this.projectId(), this.imageId(), move, this.form.controls.note.value).subscribe({
+      next: (next: ReviewStatus) => {
+        this.status.set(next);
+        if (move === 'clear') this.snapshots.reload();
+        this.form.reset();
+        this.moved.set(`Done: now ${reviewStateLabel(next.state).toLowerCase()}.`);
+        this.busy.set(false);
+      },
+      error: (error) => {
+        this.moveError.set(applyServerErrors(this.form, apiErrorMessage(error)));
+        // The state may have moved under us (409): show where it stands now.
+        if (error?.status === 409) this.status.reload();
+        this.busy.set(false);
+      },
+    });
+  }
+}

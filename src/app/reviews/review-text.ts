@@ -1,0 +1,112 @@
+import {
+  REVIEW_STATE_LABELS,
+  TRANSITION_RULES,
+  type ReviewEvent,
+  type ReviewSnapshot,
+  type ReviewState,
+  type ReviewTransition,
+  type ThreadAnchor,
+} from '../../../shared/reviews';
+
+/**
+ * Words the review screens show: state names, move names, anchors, history lines.
+ * Plain functions (no Angular), so test/src can run them under mocha.
+ */
+
+/** The state as a short badge text: "Draft", "With reviewers", "Needs changes", "Cleared for publication". */
+export function reviewStateLabel(state: ReviewState): string {
+  return REVIEW_STATE_LABELS[state];
+}
+
+/** One sentence under the badge: what the state means for the people looking at it. */
+export function reviewStateHint(state: ReviewState): string {
+  switch (state) {
+    case 'draft':
+      return 'Not yet handed to the reviewers; edits are free.';
+    case 'with_reviewers':
+      return 'Waiting for a reviewer to clear it or ask for changes.';
+    case 'needs_changes':
+      return 'A reviewer asked for changes; submit again once they are made.';
+    case 'cleared':
+      return 'Fit to publish as it stands. Any edit puts it back to draft.';
+  }
+}
+
+/** The button text of a move (also its accessible name). */
+export function moveLabel(move: ReviewTransition): string {
+  return TRANSITION_RULES[move].label;
+}
+
+/** The last part of the move's address: …/review/<segment>. */
+export function moveSegment(move: ReviewTransition): string {
+  return move === 'requestChanges' ? 'request-changes' : move;
+}
+
+/** A pixel coordinate as people read it: whole pixels, no minus zero. */
+function pixel(value: number): string {
+  const rounded = Math.round(value);
+  return String(rounded === 0 ? 0 : rounded);
+}
+
+/**
+ * Where a thread is pinned, in words: "point at 812, 440 px", "region of 5 points around 300, 210 px",
+ * "measurement". `present` false adds that the measurement is gone.
+ */
+export function describeAnchor(anchor: ThreadAnchor, present = true): string {
+  switch (anchor.kind) {
+    case 'point':
+      return `point at ${pixel(anchor.at[0])}, ${pixel(anchor.at[1])} px`;
+    case 'region': {
+      const n = anchor.ring.length;
+      const cx = anchor.ring.reduce((sum, p) => sum + p[0], 0) / Math.max(n, 1);
+      const cy = anchor.ring.reduce((sum, p) => sum + p[1], 0) / Math.max(n, 1);
+      return `region of ${n} points around ${pixel(cx)}, ${pixel(cy)} px`;
+    }
+    case 'measurement':
+      return present ? 'measurement' : 'measurement (since deleted)';
+  }
+}
+
+/** The centre of an image of `width` × `height` px, as a point anchor. */
+export function centreAnchor(width: number, height: number): ThreadAnchor {
+  return { kind: 'point', at: [Math.round(width / 2), Math.round(height / 2)] };
+}
+
+/** A typed point, or the reason it cannot be used (outside the image, not a number). */
+export function typedPoint(x: number | null, y: number | null, width: number, height: number): ThreadAnchor | string {
+  if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y)) return 'Give both x and y in image pixels.';
+  if (x < 0 || y < 0 || x > width || y > height) return `The point must lie inside the image (0–${width} × 0–${height} px).`;
+  return { kind: 'point', at: [x, y] };
+}
+
+/** One history step as a line: "Submitted for review", "Back to draft after an edit", … */
+export function historyLine(event: Pick<ReviewEvent, 'reason' | 'to'>): string {
+  switch (event.reason) {
+    case 'submit':
+      return 'Submitted for review';
+    case 'requestChanges':
+      return 'Changes requested';
+    case 'clear':
+      return 'Cleared for publication';
+    case 'reopen':
+      return 'Reopened as a draft';
+    case 'edited':
+      return `Back to ${reviewStateLabel(event.to).toLowerCase()} after an edit`;
+  }
+}
+
+/** "1 annotation", "3 measurements", "no annotations". */
+export function countOf(n: number, singular: string, plural = `${singular}s`): string {
+  return n === 0 ? `no ${plural}` : `${n} ${n === 1 ? singular : plural}`;
+}
+
+/** What a clearing froze, in one line: "18 annotations, 2 measurements". */
+export function snapshotCounts(snapshot: Pick<ReviewSnapshot, 'annotations' | 'measurements'>): string {
+  return `${countOf(snapshot.annotations.length, 'annotation')}, ${countOf(snapshot.measurements.length, 'measurement')}`;
+}
+
+/** Why clearing will be refused now, or '' when nothing stands in the way. */
+export function clearingBlocker(openThreads: number): string {
+  if (openThreads <= 0) return '';
+  return `${countOf(openThreads, 'open thread')} on this image; resolve ${openThreads === 1 ? 'it' : 'them'} before clearing.`;
+}

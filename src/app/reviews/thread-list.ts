@@ -1,0 +1,208 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal, viewChild } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButton } from '@angular/material/button';
+import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
+import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
+import { MatIcon } from '@angular/material/icon';
+import { MatInput } from '@angular/material/input';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import type { CommentThread, ThreadAnchor, ThreadStatus } from '../../../shared/reviews';
+import { apiErrorMessage, type ApiErrorMessage } from '../core/api-error-message';
+import { remote } from '../core/remote';
+import { ValidationMessagePipe } from '../core/validation-message-pipe';
+import { CommentBox, type Mentionable } from './comment-box';
+import { ReviewApi } from './review-api';
+import { centreAnchor, countOf, describeAnchor, typedPoint } from './review-text';
+
+type Filter = ThreadStatus | 'all';
+
+/** Comment threads on one image: filter, read, reply with @mentions, resolve or reopen, start a new one. */
+@Component({
+  selector: 'ef-thread-list',
+  imports: [
+    CommentBox,
+    DatePipe,
+    MatButton,
+    MatButtonToggle,
+    MatButtonToggleGroup,
+    MatError,
+    MatFormField,
+    MatIcon,
+    MatInput,
+    MatLabel,
+    MatProgressBar,
+    MatRadioButton,
+    MatRadioGroup,
+    MatSuffix,
+    ReactiveFormsModule,
+    ValidationMessagePipe,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './thread-list.html',
+  styleUrl: './thread-list.scss',
+})
+export class ThreadList {
+  private readonly api = inject(ReviewApi);
+
+  readonly projectId = input.required<string>();
+  readonly imageId = input.required<string>();
+  readonly imageWidth = input.required<number>();
+  readonly imageHeight = input.required<number>();
+  readonly members = input<readonly Mentionable[]>([]);
+  readonly canComment = input(false);
+  /** A thread was opened, resolved or reopened: the open count of the review changed. */
+  readonly changed = output<void>();
+
+  private readonly newBox = viewChild<CommentBox>('newBox');
+
+  protected readonly filter = signal<Filter>('open');
+  private readonly query = computed(() => ({ projectId: this.projectId(), imageId: this.imageId(), status: this.filter() }));
+  protected readonly threads = remote(this.query, ({ projectId, imageId, status }) => this.api.threads(projectId, imageId, status));
+  protected readonly rows = computed(() =>
+    (this.threads.value() ?? []).map((t) => ({
+      thread: t,
+      anchorText: describeAnchor(t.anchor, t.anchorPresent),
+      opening: t.comments[0] ?? null,
+      replies: t.comments.slice(1),
+      replyCount: countOf(t.comments.length - 1, 'reply', 'replies'),
+    })),
+  );
+  protected readonly emptyText = computed(() => {
+    switch (this.filter()) {
+      case 'open':
+        return 'No open threads on this image.';
+      case 'resolved':
+        return 'No resolved threads yet.';
+      default:
+        return 'Nobody has commented on this image yet.';
+    }
+  });
+
+  protected readonly composing = signal(false);
+  protected readonly anchorForm = new FormGroup({
+    pin: new FormControl<'centre' | 'point'>('centre', { nonNullable: true }),
+    x: new FormControl<number | null>(null),
+    y: new FormControl<number | null>(null),
+  });
+  protected readonly busyThread = signal<string | null>(null);
+  protected readonly threadErrors = signal<Record<string, string>>({});
+  protected readonly newError = signal('');
+
+  protected setFilter(value: Filter): void {
+    this.filter.set(value);
+  }
+
+  protected startThread(): void {
+    this.composing.set(true);
+    this.newError.set('');
+  }
+
+  protected cancelThread(): void {
+    this.composing.set(false);
+    this.newBox()?.clear();
+    this.anchorForm.reset();
+  }
+
+  protected sendThread(): void {
+    const box = this.newBox();
+    const anchor = this.chosenAnchor();
+    const draft = box?.draft() ?? null;
+    if (!box || !draft || !anchor || this.busyThread()) return;
+    this.busyThread.set('new');
+    this.newError.set('');
+    this.api.openThread(this.projectId(), this.imageId(), { anchor, ...draft }).subscribe({
+      next: () => {
+        this.busyThread.set(null);
+        this.cancelThread();
+        if (this.filter() === 'resolved') this.filter.set('open');
+        else this.threads.reload();
+        this.changed.emit();
+      },
+      error: (error) => {
+        this.busyThread.set(null);
+        this.newError.set(this.placeErrors(apiErrorMessage(error), box));
+      },
+    });
+  }
+
+  protected sendReply(thread: CommentThread, box: CommentBox): void {
+    const draft = box.draft();
+    if (!draft || this.busyThread()) return;
+    this.busyThread.set(thread.id);
+    this.setThreadError(thread.id, '');
+    this.api.reply(this.projectId(), this.imageId(), thread.id, draft).subscribe({
+      next: (saved) => {
+        this.busyThread.set(null);
+        box.clear();
+        this.replaceThread(saved);
+      },
+      error: (error) => {
+        this.busyThread.set(null);
+        this.setThreadError(thread.id, this.placeErrors(apiErrorMessage(error), box));
+      },
+    });
+  }
+
+  protected setThreadStatus(thread: CommentThread, to: ThreadStatus): void {
+    if (this.busyThread()) return;
+    this.busyThread.set(thread.id);
+    this.setThreadError(thread.id, '');
+    const call = to === 'resolved' ? this.api.resolve : this.api.reopenThread;
+    call.call(this.api, this.projectId(), this.imageId(), thread.id).subscribe({
+      next: () => {
+        this.busyThread.set(null);
+        // It leaves the filtered list (open ↔ resolved), so load the list again.
+        this.threads.reload();
+        this.changed.emit();
+      },
+      error: (error) => {
+        this.busyThread.set(null);
+        this.setThreadError(thread.id, apiErrorMessage(error).message);
+      },
+    });
+  }
+
+  /** The anchor from the form, or null with the problem shown beside the coordinates. */
+  private chosenAnchor(): ThreadAnchor | null {
+    const { pin, x, y } = this.anchorForm.getRawValue();
+    if (pin === 'centre') return centreAnchor(this.imageWidth(), this.imageHeight());
+    const result = typedPoint(x, y, this.imageWidth(), this.imageHeight());
+    if (typeof result === 'string') {
+      const c = this.anchorForm.controls;
+      c.x.setErrors({ server: result });
+      c.y.setErrors({ server: result });
+      c.x.markAsTouched();
+      c.y.markAsTouched();
+      return null;
+    }
+    return result;
+  }
+
+  /** Body problems go under the comment, anchor problems beside the coordinates; the rest is returned. */
+  private placeErrors(failure: ApiErrorMessage, box: CommentBox): string {
+    const unplaced: string[] = [];
+    for (const [key, message] of Object.entries(failure.fieldErrors)) {
+      if (key === 'body' || key === 'mentions') {
+        box.showError(message);
+      } else if (key === 'anchor' || key === 'at' || key === 'kind') {
+        this.anchorForm.controls.x.setErrors({ server: message });
+        this.anchorForm.controls.x.markAsTouched();
+      } else {
+        unplaced.push(message);
+      }
+    }
+    const placedAll = Object.keys(failure.fieldErrors).length > 0 && unplaced.length === 0;
+    return placedAll ? '' : [failure.message, ...unplaced].join(' ');
+  }
+
+  private replaceThread(saved: CommentThread): void {
+    const list = this.threads.value();
+    if (list) this.threads.set(list.map((t) => (t.id === saved.id ? saved : t)));
+  }
+
+  private setThreadError(id: string, message: string): void {
+    this.threadErrors.update((all) => ({ ...all, [id]: message }));
+  }
+}
