@@ -21,7 +21,10 @@ export const routes: Routes = [
       { path: 'projects', loadChildren: () => import('./projects/projects.routes') },
       // Samples, specimens and images under their project. After `projects`, which keeps the list and the
       // project page: a componentless route placed first would also match /projects/:id and show nothing.
+      { path: 'projects/:projectId/figures', loadChildren: () => import('./figures/figures.routes') },
       { path: 'projects/:projectId', loadChildren: () => import('./archive/archive.routes') },
+      // The measuring bench and the grain size summary (paths the archive's routes do not take).
+      { path: 'projects/:projectId', loadChildren: () => import('./measurements/measurements.routes') },
       { path: 'review-queue', loadChildren: () => import('./reviews/reviews.routes') },
       { path: 'account', loadChildren: () => import('./auth/auth.routes').then((m) => m.accountRoutes) },
       { path: 'admin', canActivate: [adminGuard], loadChildren: () => import('./admin/admin.routes') },

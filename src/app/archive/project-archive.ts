@@ -15,10 +15,16 @@ import { SampleList } from './sample-list';
   template: `
     <div class="archive-head">
       <h2>Archive</h2>
+      <div class="archive-links">
       <a mat-stroked-button [routerLink]="['/projects', project().id, 'images']">
         <mat-icon>photo_library</mat-icon>
         Search images
       </a>
+      <a mat-stroked-button [routerLink]="['/projects', project().id, 'figures']">
+        <mat-icon>view_quilt</mat-icon>
+        Figures
+      </a>
+      </div>
     </div>
     <mat-tab-group mat-stretch-tabs="false" mat-align-tabs="start" animationDuration="0ms" aria-label="Archive">
       <mat-tab label="Samples">
@@ -42,6 +48,10 @@ import { SampleList } from './sample-list';
       align-items: center;
       justify-content: space-between;
       gap: 12px;
+    }
+    .archive-links {
+      display: flex;
+      gap: 8px;
     }
     h2 {
       margin: 0;

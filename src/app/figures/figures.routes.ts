@@ -1,0 +1,9 @@
+import { Routes } from '@angular/router';
+
+/** Mounted at projects/:projectId/figures; pages set a title with the project code once loaded. */
+const routes: Routes = [
+  { path: '', title: 'Figures · Etchfile', loadComponent: () => import('./figure-list') },
+  { path: 'new', title: 'New figure · Etchfile', loadComponent: () => import('./figure-composer') },
+  { path: ':figureId', title: 'Figure · Etchfile', loadComponent: () => import('./figure-composer') },
+];
+export default routes;
