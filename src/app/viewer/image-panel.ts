@@ -1,7 +1,9 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
+import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { MODALITY_LABELS, type ImageRecord } from '../../../shared/images';
+import { of } from 'rxjs';
+import { MODALITY_LABELS, type ImageRecord, type ImageSummary } from '../../../shared/images';
 import { PIXEL_SIZE_SOURCE_LABELS, type PixelSizeSource } from '../../../shared/pixel-size';
 import { remote } from '../core/remote';
 import { formatPixelSize } from './calibration-input';
@@ -10,7 +12,7 @@ import { ViewerApi } from './viewer-api';
 /** What the image is and how its scale is known: pixel size with its source and note, and every change of it. */
 @Component({
   selector: 'ef-image-panel',
-  imports: [DatePipe, MatProgressBar],
+  imports: [DatePipe, MatButton, MatProgressBar],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <dl class="facts">
@@ -38,6 +40,30 @@ import { ViewerApi } from './viewer-api';
       <p class="source">Source: {{ sourceLabel() }}@if (!image().pixelSize.confirmed && image().pixelSize.xUm) { (not yet confirmed by a person)}</p>
       @if (image().pixelSize.note) {
         <p class="note">{{ image().pixelSize.note }}</p>
+      }
+    </section>
+
+    <section aria-labelledby="colocated-heading">
+      <h3 id="colocated-heading">Same location</h3>
+      @if (!image().locationId) {
+        <p class="empty">This image is not filed at a location, so there is nothing to compare it with.</p>
+      } @else if (colocated.loading()) {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading images of the same location" />
+      } @else if (colocated.error()) {
+        <p class="error" role="alert">{{ colocated.error() }}</p>
+      } @else if (others().length === 0) {
+        <p class="empty">No other image of {{ image().locationName }} is ready to view.</p>
+      } @else {
+        <ul class="others">
+          @for (o of others(); track o.id) {
+            <li>
+              <span class="other-name">{{ o.originalName }}<span class="when"> · {{ modalityOf(o) }}</span></span>
+              <button mat-stroked-button type="button" [attr.aria-label]="'Compare side by side with ' + o.originalName" [disabled]="o.id === comparedId()" (click)="compare.emit(o)">
+                {{ o.id === comparedId() ? 'Shown' : 'Compare' }}
+              </button>
+            </li>
+          }
+        </ul>
       }
     </section>
 
@@ -119,6 +145,24 @@ import { ViewerApi } from './viewer-api';
       padding: 0;
       list-style: none;
     }
+.others {
+      display: flex;
+      flex-direction: column;
+      gap: 6px;
+      margin: 0;
+      padding: 0;
+      list-style: none;
+    }
+    .others li {
+      display: flex;
+      align-items: center;
+      justify-content: space-between;
+      gap: 8px;
+    }
+    .other-name {
+      min-width: 0;
+      overflow-wrap: anywhere;
+    }
     .history li {
       display: flex;
       flex-direction: column;
@@ -133,12 +177,20 @@ export class ImagePanel {
 
   readonly projectId = input.required<string>();
   readonly image = input.required<ImageRecord>();
+  /** The image shown beside this one, if any. */
+  readonly comparedId = input<string | null>(null);
+  readonly compare = output<ImageSummary>();
 
   /** Reloads whenever the record changes (a new calibration bumps updatedAt). */
   protected readonly history = remote(
     () => ({ projectId: this.projectId(), imageId: this.image().id, at: this.image().updatedAt }),
     (p) => this.api.calibrationHistory(p.projectId, p.imageId),
   );
+  protected readonly colocated = remote(
+    () => ({ projectId: this.projectId(), locationId: this.image().locationId }),
+    (p) => (p.locationId ? this.api.imagesAtLocation(p.projectId, p.locationId) : of({ items: [], total: 0, page: 1, pageSize: 0 })),
+  );
+  protected readonly others = computed(() => (this.colocated.value()?.items ?? []).filter((o) => o.id !== this.image().id && o.processing.state === 'ready'));
   protected readonly modality = computed(() => MODALITY_LABELS[this.image().modality] ?? this.image().modality);
   protected readonly pixelSize = computed(() => {
     const { xUm, yUm } = this.image().pixelSize;
@@ -149,6 +201,10 @@ export class ImagePanel {
     const source = this.image().pixelSize.source;
     return PIXEL_SIZE_SOURCE_LABELS[source as PixelSizeSource] ?? source;
   });
+
+  protected modalityOf(o: ImageSummary): string {
+    return MODALITY_LABELS[o.modality] ?? o.modality;
+  }
 
   protected size(um: number | null): string {
     return um ? formatPixelSize(um) : 'none';

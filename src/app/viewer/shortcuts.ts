@@ -101,3 +101,27 @@ export const SHORTCUT_HELP: { keys: string; what: string }[] = [
   { keys: '1', what: 'Actual pixels (1 image pixel = 1 screen pixel)' },
   { keys: '?', what: 'Show or hide this list' },
 ];
+
+/** Hints beside the class picker: how the current tool is used. */
+export const TOOL_HINTS: Record<ViewerTool, string> = {
+  select: 'Click a shape to select it; drag it or its handles to change it. Drag elsewhere to pan.',
+  polyline: 'Click to place points; double-click or press Enter to finish.',
+  polygon: 'Click to place corners; click the first one or press Enter to close.',
+  freehand: 'Drag around the feature; release to close the outline.',
+  rectangle: 'Drag from one corner to the opposite one.',
+  point: 'Click to place a point.',
+  ruler: 'Drag from one end to the other.',
+  angle: 'Click the first end, the vertex, then the other end.',
+  text: 'Click where the note belongs, then type it.',
+  calibrate: 'Drag along a stage micrometer or a burned-in scale bar, then enter its true length.',
+};
+
+/** Whether a key press belongs to a text field or a list the focus is in, rather than to the viewer. */
+export function isTypingTarget(target: EventTarget | null): boolean {
+  if (typeof HTMLElement === 'undefined' || !(target instanceof HTMLElement)) return false;
+  if (target.isContentEditable) return true;
+  if (target instanceof HTMLInputElement) return target.type !== 'checkbox' && target.type !== 'radio';
+  if (target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement) return true;
+  const role = target.getAttribute('role');
+  return role === 'combobox' || role === 'listbox' || role === 'option';
+}

@@ -12,7 +12,7 @@ import { RouterLink } from '@angular/router';
 import { ANNOTATION_COLOURS, KINDS_FOR_SHAPE, type AnnotationColour, type AnnotationKind, type Coordinates } from '../../../shared/annotations/annotations';
 import type { Point } from '../../../shared/annotations/geometry';
 import { shapeProblem } from '../../../shared/annotations/shape-rules';
-import type { ImageRecord } from '../../../shared/images';
+import type { ImageRecord, ImageSummary } from '../../../shared/images';
 import { actualPixels, fitViewport, imageToScreen, panBy, zoomAround, type Viewport } from '../../../shared/viewer/viewport';
 import { remote } from '../core/remote';
 import { SessionStore } from '../core/session-store';
@@ -21,39 +21,27 @@ import { AnnotationStore } from './annotation-store';
 import { CalibrateCard } from './calibrate-card';
 import { formatPixelSize } from './calibration-input';
 import type { ShapeState } from './command-stack';
+import { ComparePane, frameOf, type StageModules } from './compare-pane';
 import { DisplayPanel } from './display-panel';
 import { ImagePanel } from './image-panel';
-import { cursorReadout, measurementLabel } from './measurements';
+import { linkedByMicrometres } from './linked-view';
+import { cursorReadout } from './measurements';
 import type { MicrographStage } from './micrograph-stage';
-import type { OverlayShape } from './overlay-layer';
+import { draftOverlay, selectionOverlay } from './overlay-content';
 import { OverviewMap } from './overview-map';
 import { ScaleBar } from './scale-bar';
 import { KIND_OF_TOOL, type FinishedDraft, type ShapeDraft } from './shape-draft';
 import { ShortcutHelp } from './shortcut-help';
-import { actionForKey, type ShortcutAction, type ViewerTool } from './shortcuts';
+import { actionForKey, isTypingTarget, TOOL_HINTS, type ShortcutAction, type ViewerTool } from './shortcuts';
 import { isNeutralTone, NEUTRAL_TONE, toneTransfer, type Tone } from './tone';
 import { ToolRail } from './tool-rail';
+import { fly } from './view-flight';
 import { centreOn, keepInView, resizeViewport, viewportForBounds } from './view-maths';
 import { previewUrl, tileUrl, ViewerApi } from './viewer-api';
 import type { ViewerInteraction } from './viewer-interaction';
 import { isShown, type ViewShape } from './view-shapes';
 
-const CALIBRATION_COLOUR = '#ffd23f';
 const ZOOM_STEP = 1.5;
-
-/** Hints under the class picker: how the current tool is used. */
-const TOOL_HINTS: Record<ViewerTool, string> = {
-  select: 'Click a shape to select it; drag it or its handles to change it. Drag elsewhere to pan.',
-  polyline: 'Click to place points; double-click or press Enter to finish.',
-  polygon: 'Click to place corners; click the first one or press Enter to close.',
-  freehand: 'Drag around the feature; release to close the outline.',
-  rectangle: 'Drag from one corner to the opposite one.',
-  point: 'Click to place a point.',
-  ruler: 'Drag from one end to the other.',
-  angle: 'Click the first end, the vertex, then the other end.',
-  text: 'Click where the note belongs, then type it.',
-  calibrate: 'Drag along a stage micrometer or a burned-in scale bar, then enter its true length.',
-};
 
 /**
  * The micrograph viewer: tiles on a konva stage (loaded only on this page), annotation tools,
@@ -105,6 +93,8 @@ export default class ViewerPage implements OnDestroy {
   private readonly canvasHost = viewChild<ElementRef<HTMLDivElement>>('canvasHost');
   private readonly stageHost = viewChild<ElementRef<HTMLDivElement>>('stageHost');
   private readonly noteInput = viewChild<ElementRef<HTMLInputElement>>('noteInput');
+  private readonly compareHost = viewChild<ElementRef<HTMLDivElement>>('compareHost');
+  private readonly compareStageHost = viewChild<ElementRef<HTMLDivElement>>('compareStageHost');
 
   protected readonly project = remote(this.projectId, (id) => this.api.project(id));
   protected readonly record = remote(
@@ -164,14 +154,28 @@ export default class ViewerPage implements OnDestroy {
   protected readonly previewSrc = computed(() => previewUrl(this.projectId(), this.imageId()));
   protected readonly backLink = computed(() => ['/projects', this.projectId(), 'images', this.imageId()]);
 
+  /** A co-located image shown beside this one, with pan and zoom linked. */
+  protected readonly compared = signal<ImageSummary | null>(null);
+  protected readonly linkNote = computed(() => {
+    const a = this.image();
+    const b = this.compared();
+    if (!a || !b) return '';
+    return linkedByMicrometres(frameOf(a), frameOf(b)) ? 'Linked by position in µm' : 'Linked by image fraction (one of the two is uncalibrated)';
+  });
+
+  /** The compared pane's view, for its scale bar. */
+  protected readonly compareView = signal<Viewport | null>(null);
+
   private stage: MicrographStage | null = null;
+  private modules: StageModules | null = null;
+  private comparePane: ComparePane | null = null;
   private interaction: ViewerInteraction | null = null;
   private resizeObserver: ResizeObserver | null = null;
   private readonly stageReady = signal(false);
   private mounting = false;
   private editing: { key: string; points: Coordinates } | null = null;
   private draft: ShapeDraft | null = null;
-  private flight = 0;
+  private stopFlight: () => void = () => undefined;
   private classJustChosen = false;
 
   private readonly nameInTitle = effect(() => {
@@ -202,11 +206,13 @@ export default class ViewerPage implements OnDestroy {
     const shapes = this.store.shapes();
     const hidden = this.hiddenClasses();
     const colours = this.colourById();
+    const um = this.umPerPx();
     if (!this.stageReady() || !this.stage) return;
-    this.stage.shapes.sync(shapes, (s) => colours.get(s.classId) ?? ANNOTATION_COLOURS.slate, (s) => isShown(s, hidden), this.editing?.key ?? null);
-    this.stage.shapes.setCalibration(this.umPerPx());
-    this.stage.invalidate('shapes');
-    untracked(() => this.refreshOverlay());
+    this.stage.shapes.setCalibration(um);
+    untracked(() => {
+      this.syncShapes(shapes, hidden, colours);
+      this.refreshOverlay();
+    });
   });
 
   private readonly drawSelection = effect(() => {
@@ -219,7 +225,9 @@ export default class ViewerPage implements OnDestroy {
   private readonly applyTone = effect(() => {
     const tone = this.tone();
     if (!this.stageReady() || !this.stage) return;
-    this.stage.tileCanvas.style.filter = isNeutralTone(tone) ? '' : 'url(#ef-viewer-tone)';
+    const filter = isNeutralTone(tone) ? '' : 'url(#ef-viewer-tone)';
+    this.stage.tileCanvas.style.filter = filter;
+    this.comparePane?.setFilter(filter);
   });
 
   /** A tool the chosen class cannot take falls back to selecting. */
@@ -237,16 +245,28 @@ export default class ViewerPage implements OnDestroy {
     });
   });
 
+  private readonly showCompared = effect(() => {
+    const other = this.compared();
+    const host = this.compareHost()?.nativeElement;
+    const stageHost = this.compareStageHost()?.nativeElement;
+    const ready = this.stageReady();
+    untracked(() => {
+      if (this.comparePane && this.comparePane.image.id !== other?.id) this.closeComparePane();
+      if (other && host && stageHost && ready && !this.comparePane) this.openComparePane(other, host, stageHost);
+    });
+  });
+
   /** The note field takes the keyboard as soon as it opens. */
   private readonly focusNote = effect(() => this.noteInput()?.nativeElement.focus({ preventScroll: true }));
 
   private readonly colourById = computed(() => new Map(this.classes().map((c) => [c.id, ANNOTATION_COLOURS[c.colour]])));
 
   ngOnDestroy(): void {
-    cancelAnimationFrame(this.flight);
+    this.stopFlight();
     this.resizeObserver?.disconnect();
     this.interaction?.destroy();
     this.stage?.destroy();
+    this.closeComparePane();
   }
 
   protected colourOf(colour: AnnotationColour): string {
@@ -294,7 +314,8 @@ export default class ViewerPage implements OnDestroy {
     if (!s || !v) return;
     this.selectedKey.set(key);
     this.tool.set('select');
-    this.flyTo(viewportForBounds(v, s.bounds));
+    this.stopFlight();
+    this.stopFlight = fly(v, viewportForBounds(v, s.bounds), (next) => this.setView(next));
   }
 
   protected changeShape(change: { key: string; state: ShapeState }): void {
@@ -309,6 +330,14 @@ export default class ViewerPage implements OnDestroy {
   protected reloadFromPanel(what: 'classes' | 'annotations'): void {
     if (what === 'classes') this.classList.reload();
     else void this.store.reloadAll();
+  }
+
+  protected compareWith(other: ImageSummary): void {
+    this.compared.set(other);
+  }
+
+  protected closeComparison(): void {
+    this.compared.set(null);
   }
 
   protected calibrated(record: ImageRecord): void {
@@ -353,7 +382,7 @@ export default class ViewerPage implements OnDestroy {
   }
 
   protected handleKeyDown(e: KeyboardEvent): void {
-    if (!this.stage || isTyping(e.target) || document.querySelector('.mat-mdc-dialog-container')) return;
+    if (!this.stage || isTypingTarget(e.target) || document.querySelector('.mat-mdc-dialog-container')) return;
     if (e.key === ' ' && !(e.target instanceof HTMLButtonElement)) {
       this.interaction?.setSpaceHeld(true);
       e.preventDefault();
@@ -425,25 +454,28 @@ export default class ViewerPage implements OnDestroy {
     const next = img ? keepInView(v, img) : v;
     this.view.set(next);
     this.stage?.setViewport(next);
+    this.comparePane?.follow(next);
   }
 
-  /** A short glide to the target view (or a jump, for those who asked for less motion). */
-  private flyTo(target: Viewport): void {
-    cancelAnimationFrame(this.flight);
-    const from = this.view();
-    if (!from || matchMedia('(prefers-reduced-motion: reduce)').matches) return this.setView(target);
-    const start = performance.now();
-    const duration = 280;
-    const c0 = { x: from.x + from.width / from.scale / 2, y: from.y + from.height / from.scale / 2 };
-    const c1 = { x: target.x + target.width / target.scale / 2, y: target.y + target.height / target.scale / 2 };
-    const step = (now: number) => {
-      const t = Math.min(1, (now - start) / duration);
-      const k = t * (2 - t);
-      const scale = Math.exp(Math.log(from.scale) + (Math.log(target.scale) - Math.log(from.scale)) * k);
-      this.setView(centreOn({ ...from, scale }, c0.x + (c1.x - c0.x) * k, c0.y + (c1.y - c0.y) * k));
-      if (t < 1) this.flight = requestAnimationFrame(step);
-    };
-    this.flight = requestAnimationFrame(step);
+  private openComparePane(other: ImageSummary, host: HTMLDivElement, stageHost: HTMLDivElement): void {
+    const a = this.image();
+    if (!this.modules || !a || !this.view()) return;
+    const projectId = this.projectId();
+    this.comparePane = new ComparePane(
+      this.modules,
+      host,
+      stageHost,
+      other,
+      { image: a, view: () => this.view(), setView: (v) => this.setView(v), viewChanged: (v) => this.compareView.set(v) },
+      { tile: (level, col, row) => tileUrl(projectId, other.id, level, col, row), preview: previewUrl(projectId, other.id) },
+    );
+    if (!isNeutralTone(this.tone())) this.comparePane.setFilter('url(#ef-viewer-tone)');
+  }
+
+  private closeComparePane(): void {
+    this.comparePane?.destroy();
+    this.comparePane = null;
+    this.compareView.set(null);
   }
 
   private async mountStage(img: ImageRecord, host: HTMLDivElement, stageHost: HTMLDivElement): Promise<void> {
@@ -454,6 +486,7 @@ export default class ViewerPage implements OnDestroy {
       import('./micrograph-stage'),
       import('./viewer-interaction'),
     ]);
+    this.modules = { Konva, MicrographStage, ViewerInteraction };
     const width = Math.max(1, host.clientWidth);
     const height = Math.max(1, host.clientHeight);
     const v = fitViewport(img, width, height);
@@ -521,12 +554,8 @@ export default class ViewerPage implements OnDestroy {
   private editPreview(key: string, points: Coordinates | null): void {
     const was = this.editing?.key ?? null;
     this.editing = points ? { key, points } : null;
-    if (was !== (this.editing?.key ?? null) && this.stage) {
-      const hidden = this.hiddenClasses();
-      const colours = this.colourById();
-      this.stage.shapes.sync(this.store.shapes(), (s) => colours.get(s.classId) ?? ANNOTATION_COLOURS.slate, (s) => isShown(s, hidden), this.editing?.key ?? null);
-      this.stage.invalidate('shapes');
-    }
+    // The dragged shape leaves the shape layer while the overlay shows it moving.
+    if (was !== (this.editing?.key ?? null)) this.syncShapes(this.store.shapes(), this.hiddenClasses(), this.colourById());
     this.refreshOverlay();
   }
 
@@ -543,50 +572,24 @@ export default class ViewerPage implements OnDestroy {
     this.store.update(key, { classId: s.classId, kind: s.kind, points, label: s.label });
   }
 
+  private syncShapes(shapes: readonly ViewShape[], hidden: ReadonlySet<string>, colours: Map<string, string>): void {
+    if (!this.stage) return;
+    this.stage.shapes.sync(shapes, (s) => colours.get(s.classId) ?? ANNOTATION_COLOURS.slate, (s) => isShown(s, hidden), this.editing?.key ?? null);
+    this.stage.invalidate('shapes');
+  }
+
   /** Selection, draft and calibration line onto the overlay layer. */
   private refreshOverlay(): void {
     const stage = this.stage;
     if (!stage) return;
     const um = this.umPerPx();
-    const colours = this.colourById();
-    const selected = this.selectedKey() ? this.store.byKey().get(this.selectedKey()!) : undefined;
-    let selection: OverlayShape | null = null;
-    if (selected) {
-      const points = this.editing?.key === selected.key ? this.editing.points : selected.points;
-      selection = {
-        kind: selected.kind,
-        points,
-        label: selected.label,
-        colour: colours.get(selected.classId) ?? ANNOTATION_COLOURS.slate,
-        measurement: measurementLabel(selected.kind, points, um),
-      };
-    }
-    stage.overlay.setSelection(selection, this.canAnnotate() && this.tool() === 'select');
+    const colourOf = (classId: string) => this.colourById().get(classId) ?? ANNOTATION_COLOURS.slate;
+    const key = this.selectedKey();
+    const selected = key ? this.store.byKey().get(key) : undefined;
+    const edited = this.editing && this.editing.key === key ? this.editing.points : null;
+    stage.overlay.setSelection(selectionOverlay(selected, edited, selected ? colourOf(selected.classId) : '', um), this.canAnnotate() && this.tool() === 'select');
     stage.overlay.setCalibrationLine(this.calibrationLine());
-    const d = this.draft;
-    const preview = d?.preview() ?? [];
-    if (d && preview.length > 0) {
-      const kind = KIND_OF_TOOL[d.tool] ?? 'ruler';
-      const points = preview.map((p) => [p[0], p[1]] as [number, number]);
-      const colour = d.tool === 'calibrate' ? CALIBRATION_COLOUR : (colours.get(this.classId()) ?? ANNOTATION_COLOURS.slate);
-      stage.overlay.setDraft({ kind, points, label: '', colour, measurement: draftMeasurement(kind, points, um) });
-    } else {
-      stage.overlay.setDraft(null);
-    }
+    stage.overlay.setDraft(draftOverlay(this.draft, colourOf(this.classId()), um));
     stage.invalidate('overlay');
   }
-}
-
-/** What a shape being drawn measures so far. */
-function draftMeasurement(kind: AnnotationKind, points: Coordinates, um: number | null): string {
-  if (kind === 'angle' && points.length < 3) return '';
-  if ((kind === 'polygon' || kind === 'rectangle') && points.length < 3) return '';
-  return kind === 'point' || kind === 'text' ? '' : measurementLabel(kind, points, um);
-}
-
-function isTyping(target: EventTarget | null): boolean {
-  if (!(target instanceof HTMLElement)) return false;
-  if (target.isContentEditable) return true;
-  if (target instanceof HTMLInputElement) return target.type !== 'checkbox' && target.type !== 'radio';
-  return target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement || target.getAttribute('role') === 'combobox' || target.getAttribute('role') === 'listbox' || target.getAttribute('role') === 'option';
 }
