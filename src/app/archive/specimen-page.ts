@@ -1,11 +1,11 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
-import { MatButton } from '@angular/material/button';
+import { MatAnchor, MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
-import { Router } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { SECTION_PLANE_LABELS, type Specimen } from '../../../shared/archive/specimens';
 import { apiErrorMessage } from '../core/api-error-message';
@@ -23,7 +23,7 @@ import { SpecimenImages } from './specimen-images';
 /** One specimen: how it was cut and prepared, the caution if etched, its locations, and its images. */
 @Component({
   selector: 'ef-specimen-page',
-  imports: [Breadcrumbs, DatePipe, EtchantCaution, LocationList, MatButton, MatIcon, MatProgressBar, SpecimenImages],
+  imports: [Breadcrumbs, DatePipe, EtchantCaution, LocationList, MatAnchor, MatButton, MatIcon, MatProgressBar, RouterLink, SpecimenImages],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './specimen-page.html',
   styleUrl: './archive-pages.scss',

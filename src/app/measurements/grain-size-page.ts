@@ -1,0 +1,93 @@
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input } from '@angular/core';
+import { MatAnchor, MatButton } from '@angular/material/button';
+import { MatIcon } from '@angular/material/icon';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { Title } from '@angular/platform-browser';
+import { forkJoin, map, of, switchMap } from 'rxjs';
+import { remote } from '../core/remote';
+import { ImageApi } from '../archive/image-api';
+import { Breadcrumbs, type Crumb } from '../archive/breadcrumbs';
+import { ProjectApi } from '../projects/project-api';
+import { InterceptPlot } from './intercept-plot';
+import { PrintFrame } from './print-frame';
+import { MeasurementsApi } from './measurements-api';
+import { formatCount, formatG, formatLength, formatPercent, formatPlusMinusUm, formatUm } from './measure-units';
+import { methodNotes } from './method-notes';
+import { interceptBars, rowLabel } from './summary-plot-data';
+
+/** Shown with every grain size summary (our wording of the research caution). */
+export const SUMMARY_CAUTION =
+  'These numbers support research; they do not certify material for structural use — follow the applicable standard and accredited practice.';
+
+/** A specimen's grain size across its measured fields: table, plot, downloads and a printable method statement. */
+@Component({
+  selector: 'ef-grain-size-page',
+  imports: [Breadcrumbs, InterceptPlot, MatAnchor, MatButton, MatIcon, MatProgressBar, PrintFrame],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './grain-size-page.html',
+  styleUrl: './grain-size-page.scss',
+})
+export default class GrainSizePage {
+  private readonly api = inject(MeasurementsApi);
+  private readonly imageApi = inject(ImageApi);
+  private readonly projectApi = inject(ProjectApi);
+  private readonly title = inject(Title);
+
+  /** Route parameters. */
+  readonly projectId = input.required<string>();
+  readonly specimenId = input.required<string>();
+
+  private readonly ids = computed(() => ({ projectId: this.projectId(), specimenId: this.specimenId() }));
+  protected readonly project = remote(this.projectId, (id) => this.projectApi.get(id));
+  protected readonly summary = remote(this.ids, ({ projectId, specimenId }) => this.api.summary(projectId, specimenId));
+  /** Every measurement on the specimen's images, for the method statement (pattern, rules, calibration). */
+  protected readonly fields = remote(this.ids, ({ projectId, specimenId }) =>
+    this.imageApi.search(projectId, { page: 0, pageSize: 100, sort: 'uploadedAt', dir: 'asc', specimenId }).pipe(
+      switchMap((page) => (page.items.length === 0 ? of([]) : forkJoin(page.items.map((i) => this.api.list(projectId, i.id))))),
+      map((lists) => lists.flat()),
+    ),
+  );
+
+  protected readonly rows = computed(() =>
+    (this.summary.value()?.intercepts ?? []).map((r) => ({
+      label: rowLabel(r),
+      n: r.meanIntercept.n,
+      mean: formatUm(r.meanIntercept.mean, 2),
+      ci: formatPlusMinusUm(r.meanIntercept.ci95),
+      ra: formatPercent(r.meanIntercept.relativeAccuracyPct),
+      raWarning: r.meanIntercept.relativeAccuracyWarning,
+      g: formatG(r.g),
+      counts: `${formatCount(r.totalCount)} ${r.countSymbols.join('/')} on ${formatLength(r.totalLineLengthUm)}`,
+      anisotropy: r.anisotropyIndex === null ? '' : r.anisotropyIndex.toFixed(2),
+      notes: [
+        ...r.warnings,
+        ...(r.staleFields > 0 ? [`${r.staleFields} field(s) measured at an older pixel size: recompute them.`] : []),
+        ...(r.emptyFields > 0 ? [`${r.emptyFields} field(s) with nothing counted were left out.`] : []),
+      ],
+    })),
+  );
+  protected readonly anyRaWarning = computed(() => this.rows().some((r) => r.raWarning));
+  protected readonly bars = computed(() => interceptBars(this.summary.value()?.intercepts ?? []));
+  protected readonly method = computed(() => methodNotes(this.fields.value() ?? []));
+  protected readonly caution = SUMMARY_CAUTION;
+  protected readonly summaryCsv = computed(() => this.api.summaryCsvUrl(this.projectId(), this.specimenId()));
+  protected readonly fieldsCsv = computed(() => this.api.fieldsCsvUrl(this.projectId(), this.specimenId()));
+  protected readonly crumbs = computed<Crumb[]>(() => {
+    const p = this.projectId();
+    return [
+      { label: 'Projects', link: ['/projects'] },
+      { label: this.project.value()?.code ?? 'Project', link: ['/projects', p] },
+      { label: this.summary.value()?.specimenCode ?? 'Specimen', link: ['/projects', p, 'specimens', this.specimenId()] },
+      { label: 'Grain size summary' },
+    ];
+  });
+
+  private readonly pageTitle = effect(() => {
+    const s = this.summary.value();
+    if (s) this.title.setTitle(`Grain size · ${s.specimenCode} · Etchfile`);
+  });
+
+  protected print(): void {
+    window.print();
+  }
+}

@@ -1,0 +1,42 @@
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { Measurement } from '../../../shared/measurements/measurement-records';
+import { formatUmPerPx } from './measure-units';
+import { resultRows } from './result-rows';
+
+/** The server's numbers for one saved measurement, with units and the sentences that belong beside them. */
+@Component({
+  selector: 'ef-measure-result',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <section class="card result" aria-labelledby="result-heading">
+      <h2 id="result-heading">Saved result · {{ measurement().whereLabel }}</h2>
+      <dl>
+        @for (row of rows(); track row.label) {
+          <div><dt>{{ row.label }}</dt><dd class="ef-number">{{ row.value }}</dd></div>
+        }
+        <div><dt>Pixel size used</dt><dd class="ef-number">{{ pixel() }}</dd></div>
+      </dl>
+      @if (measurement().stale; as stale) {
+        <p class="stale" role="alert">{{ stale.message }}</p>
+      }
+      @for (s of measurement().result.statements; track $index) {
+        <p class="statement">{{ s }}</p>
+      }
+    </section>
+  `,
+  styles: `
+    .card { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; padding: 16px; background: var(--mat-sys-surface-container-low); }
+    h2 { margin: 0 0 8px; font: var(--mat-sys-title-medium); }
+    dl { display: grid; grid-template-columns: repeat(auto-fill, minmax(220px, 1fr)); gap: 8px 24px; margin: 0; }
+    dt { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-label-medium); }
+    dd { margin: 0; font: var(--mat-sys-title-medium); }
+    .stale { color: var(--mat-sys-error); }
+    .statement { margin: 8px 0 0; color: var(--mat-sys-on-surface-variant); }
+  `,
+})
+export class MeasureResult {
+  readonly measurement = input.required<Measurement>();
+
+  protected readonly rows = computed(() => resultRows(this.measurement().result));
+  protected readonly pixel = computed(() => `${formatUmPerPx(this.measurement().pixelSize.umPerPx)} (${this.measurement().pixelSize.source})`);
+}

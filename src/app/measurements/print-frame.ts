@@ -1,0 +1,20 @@
+import { ChangeDetectionStrategy, Component, ViewEncapsulation } from '@angular/core';
+
+/**
+ * Placed on printable pages: when printing, the app bar and the navigation drawer are hidden
+ * and the content takes the page. Unencapsulated on purpose: it styles the shell around the page.
+ */
+@Component({
+  selector: 'ef-print-frame',
+  template: '',
+  encapsulation: ViewEncapsulation.None,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  styles: `
+    @media print {
+      .ef-app-bar, .skip-link, mat-sidenav, .mat-drawer { display: none !important; }
+      .mat-drawer-content, mat-sidenav-content { margin: 0 !important; }
+      .mat-drawer-container, mat-sidenav-container { position: static !important; overflow: visible !important; }
+    }
+  `,
+})
+export class PrintFrame {}

@@ -1,0 +1,50 @@
+import type { InterceptFigures, MeasurementResult } from '../../../shared/measurements/measurement-records';
+import { formatCount, formatG, formatLength, formatPerMm, formatUm } from './measure-units';
+
+/** One labelled number of a result, with its unit. */
+export interface ResultRow {
+  label: string;
+  value: string;
+}
+
+function interceptRows(f: InterceptFigures, symbol: 'P' | 'N', prefix = ''): ResultRow[] {
+  return [
+    { label: `${prefix}Total test line length`, value: formatLength(f.lineLengthUm) },
+    { label: `${prefix}${symbol} (${symbol === 'P' ? 'intersections' : 'intercepts'})`, value: formatCount(f.count) },
+    { label: `${prefix}${symbol}_L`, value: formatPerMm(f.perMm) },
+    { label: `${prefix}Mean lineal intercept l̄`, value: formatUm(f.meanInterceptUm, 2) },
+    { label: `${prefix}ASTM grain size G`, value: formatG(f.g) },
+  ];
+}
+
+/** A saved result as label/value rows with units, for the result card and the saved list. Pure. */
+export function resultRows(r: MeasurementResult): ResultRow[] {
+  if (r.kind === 'intercept') {
+    const rows = interceptRows(r, r.countSymbol);
+    if (r.byDirection) {
+      rows.push(...interceptRows(r.byDirection.along, r.countSymbol, 'Along: '), ...interceptRows(r.byDirection.across, r.countSymbol, 'Across: '));
+      if (r.byDirection.anisotropyIndex !== null) rows.push({ label: 'Anisotropy index l̄∥ / l̄⊥', value: r.byDirection.anisotropyIndex.toFixed(2) });
+    }
+    return rows;
+  }
+  if (r.kind === 'point_count') {
+    return [
+      { label: 'Grid points P_T', value: String(r.gridPoints) },
+      { label: 'Inside / on a boundary', value: `${r.inside} / ${r.onBoundary}` },
+      { label: `Point fraction P_p (${r.phaseName})`, value: `${(r.pointFraction * 100).toFixed(1)} %` },
+    ];
+  }
+  return [
+    { label: `Mean thickness of band ${r.band}`, value: formatUm(r.meanUm, 2) },
+    { label: 'Standard deviation', value: formatUm(r.sUm, 2) },
+    { label: 'Range', value: `${formatUm(r.minUm, 1)} – ${formatUm(r.maxUm, 1)}` },
+    { label: 'Samples', value: `${r.samplesUm.length}, every ${formatUm(r.spacingUm, 1)}` },
+  ];
+}
+
+/** The one-line gist of a result for a list. Pure. */
+export function resultGist(r: MeasurementResult): string {
+  if (r.kind === 'intercept') return `${r.countSymbol} = ${formatCount(r.count)}, l̄ = ${formatUm(r.meanInterceptUm, 2)}, G = ${formatG(r.g)}`;
+  if (r.kind === 'point_count') return `P_p = ${(r.pointFraction * 100).toFixed(1)} % ${r.phaseName}`;
+  return `thickness ${formatUm(r.meanUm, 2)} ± ${formatUm(r.sUm, 2)}`;
+}

@@ -1,0 +1,26 @@
+import type { InterceptSummary } from '../../../shared/measurements/measurement-records';
+
+/** What the l̄ plot draws per summary row: a label, the mean and its 95 % interval (µm). */
+export interface InterceptBar {
+  label: string;
+  mean: number;
+  low: number;
+  high: number;
+}
+
+const DIRECTION_WORDS: Record<InterceptSummary['direction'], string> = { along: 'along', across: 'across', oblique: 'oblique', all: 'all directions' };
+
+/** "band 2 · along"; the direction reads in words. Pure. */
+export function rowLabel(row: Pick<InterceptSummary, 'where' | 'direction' | 'phase'>): string {
+  return `${row.where} · ${DIRECTION_WORDS[row.direction]}${row.phase ? ` · ${row.phase}` : ''}`;
+}
+
+/** Bars for the plot: one per band and direction; a single field has no interval, so its bar is the mean alone. Pure. */
+export function interceptBars(rows: readonly InterceptSummary[]): InterceptBar[] {
+  return rows
+    .filter((r) => r.meanIntercept.n > 0 && Number.isFinite(r.meanIntercept.mean))
+    .map((r) => {
+      const ci = r.meanIntercept.ci95 ?? 0;
+      return { label: rowLabel(r), mean: r.meanIntercept.mean, low: Math.max(0, r.meanIntercept.mean - ci), high: r.meanIntercept.mean + ci };
+    });
+}
