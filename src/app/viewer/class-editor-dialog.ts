@@ -69,7 +69,7 @@ const SHAPE_KIND_NAMES: Record<ShapeKind, string> = {
         @if (row.moveTo !== null) {
           <div class="move">
             <mat-form-field class="name">
-              <mat-label>Move its {{ row.usage }} shapes to</mat-label>
+              <mat-label>Move its shapes to</mat-label>
               <mat-select [value]="row.moveTo" (valueChange)="setMoveTo($index, $event)" aria-label="Class to move the shapes to">
                 @for (other of others(row.id); track other.id) {
                   <mat-option [value]="other.id">{{ other.name }}</mat-option>
