@@ -70,7 +70,7 @@ export class CommentBox {
 
   protected readonly text = new FormControl('', {
     nonNullable: true,
-    validators: [Validators.required, Validators.maxLength(BODY_MAX)],
+    validators: [Validators.maxLength(BODY_MAX)],
   });
   private readonly typed = signal('');
   private readonly caret = signal(0);
