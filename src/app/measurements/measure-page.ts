@@ -12,6 +12,7 @@ import type { Measurement } from '../../../shared/measurements/measurement-recor
 import type { PointMark } from '../../../shared/measurements/measurements';
 import { patternLines } from '../../../shared/measurements/patterns';
 import { gridPoints } from '../../../shared/measurements/point-count';
+import { clipSegmentToBand } from '../../../shared/measurements/layers';
 import { apiErrorMessage } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
@@ -94,6 +95,12 @@ export default class MeasurePage {
   protected readonly pattern = computed(() => patternOf(this.form(), this.size().w, this.size().h, this.umPerPx() ?? 1));
   protected readonly testLines = computed(() => (this.calibrated() && this.kind() === 'intercept' ? patternLines(this.pattern(), this.size().w, this.size().h, this.umPerPx()!) : []));
   protected readonly segments = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'segment'));
+  /** With a band chosen, the parts of the straight lines that count are drawn bright over the faint full lines. */
+  protected readonly countedPieces = computed(() => {
+    const band = this.bands().bands[this.band() - 1];
+    if (!band) return [];
+    return this.segments().flatMap(({ l }) => (l.kind === 'segment' ? clipSegmentToBand(l.a, l.b, band, this.bands().axis) : []));
+  });
   protected readonly circles = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'circle'));
   protected readonly grid = computed(() => {
     const um = this.umPerPx();

@@ -11,8 +11,8 @@ import { resultRows } from './result-rows';
     <section class="card result" aria-labelledby="result-heading">
       <h2 id="result-heading">Saved result · {{ measurement().whereLabel }}</h2>
       <dl>
-        @for (row of rows(); track row.label) {
-          <div><dt>{{ row.label }}</dt><dd class="ef-number">{{ row.value }}</dd></div>
+        @for (row of rows(); track row.label + (row.sub ?? '')) {
+          <div><dt>{{ row.label }}@if (row.sub) {<sub>{{ row.sub }}</sub>}</dt><dd class="ef-number">{{ row.value }}</dd></div>
         }
         <div><dt>Pixel size used</dt><dd class="ef-number">{{ pixel() }}</dd></div>
       </dl>

@@ -12,7 +12,7 @@ import { ChangeDetectionStrategy, Component, ViewEncapsulation } from '@angular/
   styles: `
     @media print {
       .ef-app-bar, .skip-link, mat-sidenav, .mat-drawer { display: none !important; }
-      .mat-drawer-content, mat-sidenav-content { margin: 0 !important; }
+      .mat-drawer-content, mat-sidenav-content { margin: 0 !important; transition: none !important; }
       .mat-drawer-container, mat-sidenav-container { position: static !important; overflow: visible !important; }
     }
   `,

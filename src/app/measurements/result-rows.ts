@@ -4,6 +4,8 @@ import { formatCount, formatG, formatLength, formatPerMm, formatUm } from './mea
 /** One labelled number of a result, with its unit. */
 export interface ResultRow {
   label: string;
+  /** Set for quantities written with a subscript (P_L, N_L): label, then `sub` lowered. */
+  sub?: string;
   value: string;
 }
 
@@ -11,7 +13,7 @@ function interceptRows(f: InterceptFigures, symbol: 'P' | 'N', prefix = ''): Res
   return [
     { label: `${prefix}Total test line length`, value: formatLength(f.lineLengthUm) },
     { label: `${prefix}${symbol} (${symbol === 'P' ? 'intersections' : 'intercepts'})`, value: formatCount(f.count) },
-    { label: `${prefix}${symbol}_L`, value: formatPerMm(f.perMm) },
+    { label: `${prefix}${symbol}`, sub: 'L', value: formatPerMm(f.perMm) },
     { label: `${prefix}Mean lineal intercept l̄`, value: formatUm(f.meanInterceptUm, 2) },
     { label: `${prefix}ASTM grain size G`, value: formatG(f.g) },
   ];
@@ -29,9 +31,9 @@ export function resultRows(r: MeasurementResult): ResultRow[] {
   }
   if (r.kind === 'point_count') {
     return [
-      { label: 'Grid points P_T', value: String(r.gridPoints) },
+      { label: 'Grid points P', sub: 'T', value: String(r.gridPoints) },
       { label: 'Inside / on a boundary', value: `${r.inside} / ${r.onBoundary}` },
-      { label: `Point fraction P_p (${r.phaseName})`, value: `${(r.pointFraction * 100).toFixed(1)} %` },
+      { label: `Point fraction (${r.phaseName}) P`, sub: 'p', value: `${(r.pointFraction * 100).toFixed(1)} %` },
     ];
   }
   return [
@@ -45,6 +47,6 @@ export function resultRows(r: MeasurementResult): ResultRow[] {
 /** The one-line gist of a result for a list. Pure. */
 export function resultGist(r: MeasurementResult): string {
   if (r.kind === 'intercept') return `${r.countSymbol} = ${formatCount(r.count)}, l̄ = ${formatUm(r.meanInterceptUm, 2)}, G = ${formatG(r.g)}`;
-  if (r.kind === 'point_count') return `P_p = ${(r.pointFraction * 100).toFixed(1)} % ${r.phaseName}`;
+  if (r.kind === 'point_count') return `point fraction ${(r.pointFraction * 100).toFixed(1)} % ${r.phaseName}`;
   return `thickness ${formatUm(r.meanUm, 2)} ± ${formatUm(r.sUm, 2)}`;
 }
