@@ -29,7 +29,7 @@ import { pixelSizeText } from './figure-geometry';
         <mat-form-field subscriptSizing="dynamic">
           <mat-label>Width in mm</mat-label>
           <input matInput type="number" min="20" max="500" step="any" aria-label="Width in mm" [value]="widthMm()" (input)="widthMm.set(+$any($event.target).value)" />
-          <mat-hint>20-500; one journal column is about 85</mat-hint>
+          <mat-hint>20 to 500</mat-hint>
           @if (widthProblem()) {
             <mat-error>{{ widthProblem() }}</mat-error>
           }
@@ -37,12 +37,13 @@ import { pixelSizeText } from './figure-geometry';
         <mat-form-field subscriptSizing="dynamic">
           <mat-label>Dots per inch</mat-label>
           <input matInput type="number" min="72" max="1200" step="1" aria-label="Dots per inch" [value]="dpi()" (input)="dpi.set(+$any($event.target).value)" />
-          <mat-hint>72-1200; print usually asks 300-600</mat-hint>
+          <mat-hint>72 to 1200</mat-hint>
           @if (dpiProblem()) {
             <mat-error>{{ dpiProblem() }}</mat-error>
           }
         </mat-form-field>
       </div>
+      <p class="note">A journal column is about 85 mm wide, a full page about 170 mm; print usually asks 300 to 600 dpi.</p>
       @if (localProblem(); as problem) {
         <p class="problem" role="alert">{{ problem }}</p>
       } @else {

@@ -21,7 +21,7 @@ import { remote } from '../core/remote';
     </mat-form-field>
     <div class="progress-slot">
       @if (images.loading()) {
-        <mat-progress-bar mode="indeterminate" [attr.aria-label]="'Searching images for ' + label()" />
+        <mat-progress-bar mode="indeterminate" aria-label="Searching images" />
       }
     </div>
     @if (images.error(); as error) {
@@ -30,7 +30,7 @@ import { remote } from '../core/remote';
       @if (page.items.length === 0) {
         <p class="empty">No ready images match “{{ query() }}”.</p>
       } @else {
-        <ul class="grid" [attr.aria-label]="'Ready images for ' + label()">
+        <ul class="grid" [attr.aria-label]="listLabel()">
           @for (image of page.items; track image.id) {
             <li>
               <button type="button" class="pick" [class.chosen]="image.id === chosenId()" [attr.aria-pressed]="image.id === chosenId()" (click)="picked.emit(image)">
@@ -122,6 +122,8 @@ export class ImageChooser {
   readonly projectId = input.required<string>();
   /** The accessible name of the search field, e.g. "Panel 2 image". */
   readonly label = input.required<string>();
+  /** The accessible name of the thumbnail list, e.g. "Images to choose for panel 2". */
+  readonly listLabel = input.required<string>();
   readonly chosenId = input<string | null>(null);
   readonly picked = output<ImageSummary>();
 

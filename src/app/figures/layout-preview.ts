@@ -188,6 +188,6 @@ export class LayoutPreview {
   protected readonly description = computed(() => {
     const l = this.layout();
     const n = this.spec().panels.length;
-    return l ? `Layout preview: ${n} panel${n === 1 ? '' : 's'} in ${Math.min(this.spec().columns, n)} columns, ${l.width} × ${l.height} px` : 'Layout preview';
+    return l ? `Layout preview: ${n} panel${n === 1 ? '' : 's'}, up to ${Math.min(this.spec().columns, n)} per row, ${l.width} × ${l.height} px` : 'Layout preview';
   });
 }
