@@ -41,10 +41,11 @@ export const notificationSettingsBody = z.strictObject({
 export type NotificationSettingsBody = z.infer<typeof notificationSettingsBody>;
 
 /**
- * The page a notification points at: the image in the viewer, opened on the thread when there is one.
+ * The page a notification points at: the image's page, where its review and threads are, opened on
+ * the thread when there is one (the viewer is one click from there).
  * Relative, so the server can prefix its public address when it sends.
  */
 export function notificationPath(projectId: string, imageId: string, threadId: string | null): string {
-  const base = `/projects/${projectId}/images/${imageId}/view`;
+  const base = `/projects/${projectId}/images/${imageId}`;
   return threadId ? `${base}?thread=${threadId}` : base;
 }

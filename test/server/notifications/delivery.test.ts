@@ -54,7 +54,7 @@ describe('notifications: immediate, daily digest or off', () => {
     await ctx().jobs.boss.send(DIGEST_QUEUE, {});
 
     const digest = await waitForMail(s.people.reviewer.email, /^Etchfile daily digest: 2 notifications$/, MAIL_WAIT_MS);
-    const base = `${ctx().config.publicUrl}/projects/${s.projectId}/images/${imageId}/view`;
+    const base = `${ctx().config.publicUrl}/projects/${s.projectId}/images/${imageId}`;
     expect(digest.text).to.contain(`- ${s.people.researcher.displayName} submitted fixture.tif for review\n  ${base}\n`);
     expect(digest.text).to.contain(`- ${s.people.lead.displayName} mentioned you on fixture.tif: “Please look at the bond line first.”\n  ${base}?thread=${thread.id}`);
     await eventually('both marked sent', async () => (await deliveries(s.people.reviewer.id, imageId)).every((n) => n.status === 'sent'));

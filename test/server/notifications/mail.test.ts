@@ -85,7 +85,7 @@ describe('notifications: e-mail for each kind, through the durable queue', () =>
       expect(mail.subject.startsWith(`[${code}] `)).to.equal(true);
       expect(mail.text).to.contain(`Hello ${recipient.displayName},`);
       expect(mail.text).to.contain(c.says);
-      const link = `${publicUrl()}/projects/${s.projectId}/images/${imageId}/view${threadId ? `?thread=${threadId}` : ''}`;
+      const link = `${publicUrl()}/projects/${s.projectId}/images/${imageId}${threadId ? `?thread=${threadId}` : ''}`;
       expect(mail.text).to.contain(`Open it: ${link}\n`);
       const mine = async () => (await deliveries(recipient.id, imageId)).filter((n) => n.kind === c.kind);
       expect(await mine()).to.have.length(1);

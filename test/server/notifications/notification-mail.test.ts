@@ -13,7 +13,7 @@ describe('notifications: mail wording', () => {
   it('when a public address ends in a slash, then links do not double it', () => {
     const mail = composeSingle({ ...item(1), kind: 'mention', threadId: 't9', facts: { ...item(1).facts, excerpt: 'See the crack.' } }, 'Maren', 'https://lab.example.test/');
     expect(mail.subject).to.equal('[KV-LAM-24] Joaquim Veldterra mentioned you on ARB-1-P1-L_050x.tif');
-    expect(mail.text).to.contain('Open it: https://lab.example.test/projects/p1/images/image-1/view?thread=t9\n');
+    expect(mail.text).to.contain('Open it: https://lab.example.test/projects/p1/images/image-1?thread=t9\n');
     expect(mail.text).to.contain('“See the crack.”');
   });
 
@@ -21,7 +21,7 @@ describe('notifications: mail wording', () => {
     const mail = composeDigest([item(1), item(2, 'KV-OXI-25'), item(3)], 'Sefa', 'https://lab.example.test');
     expect(mail.subject).to.equal('Etchfile daily digest: 3 notifications');
     expect(mail.text.indexOf('KV-LAM-24\n- Joaquim Veldterra submitted ARB-1')).to.be.lessThan(mail.text.indexOf('- Joaquim Veldterra submitted ARB-3'));
-    expect(mail.text).to.contain('KV-OXI-25\n- Joaquim Veldterra submitted ARB-2-P1-L_050x.tif for review\n  https://lab.example.test/projects/p1/images/image-2/view');
+    expect(mail.text).to.contain('KV-OXI-25\n- Joaquim Veldterra submitted ARB-2-P1-L_050x.tif for review\n  https://lab.example.test/projects/p1/images/image-2');
   });
 
   it('when a digest holds more than 100 items, then it lists 100 and counts the rest', () => {
