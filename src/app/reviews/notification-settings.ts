@@ -38,6 +38,11 @@ export class NotificationSettings {
     return digestTime(hourUtc);
   }
 
+  /** A new choice is not saved yet: take the old confirmation away. */
+  protected forgetConfirmation(): void {
+    this.saved.set('');
+  }
+
   protected save(): void {
     if (this.saving()) return;
     this.saving.set(true);

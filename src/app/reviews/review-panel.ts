@@ -2,18 +2,20 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import type { ReviewStatus, ReviewTransition } from '../../../shared/reviews';
 import { apiErrorMessage } from '../core/api-error-message';
+import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
 import { applyServerErrors } from '../core/server-errors';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
 import { formatPixelSizeXY } from '../archive/image-display';
 import { ReviewApi } from './review-api';
-import { clearingBlocker, historyLine, moveLabel, reviewStateHint, reviewStateLabel, snapshotCounts } from './review-text';
+import { clearingBlocker, countOf, historyLine, moveLabel, reviewStateHint, reviewStateLabel, snapshotCounts } from './review-text';
 
 const NOTE_MAX = 2000;
 
@@ -27,6 +29,7 @@ const NOTE_MAX = 2000;
 })
 export class ReviewPanel {
   private readonly api = inject(ReviewApi);
+  private readonly dialog = inject(MatDialog);
 
   readonly projectId = input.required<string>();
   readonly imageId = input.required<string>();
@@ -45,6 +48,9 @@ export class ReviewPanel {
       state: s.state,
       label: reviewStateLabel(s.state),
       hint: reviewStateHint(s.state),
+      submittedBy: s.submittedBy?.name ?? null,
+      submittedAt: s.submittedAt,
+      threadsText: countOf(s.openThreads, 'open thread'),
       moves: s.transitions.map((move) => ({ move, label: moveLabel(move) })),
       blocker: s.transitions.includes('clear') ? clearingBlocker(s.openThreads) : '',
       history: [...s.history].reverse().map((e) => ({ ...e, line: historyLine(e) })),
@@ -68,7 +74,22 @@ export class ReviewPanel {
     this.status.reload();
   }
 
-  protected makeMove(move: ReviewTransition): void {
+  protected chooseMove(move: ReviewTransition): void {
+    if (move !== 'reopen') {
+      this.makeMove(move);
+      return;
+    }
+    // Reopening withdraws a clearance others may rely on: ask first.
+    askToConfirm(this.dialog, {
+      title: 'Reopen this image?',
+      message: 'It goes back to draft and is no longer cleared for publication. The cleared version stays on record below.',
+      confirmLabel: 'Reopen',
+    }).subscribe((confirmed) => {
+      if (confirmed) this.makeMove(move);
+    });
+  }
+
+  private makeMove(move: ReviewTransition): void {
     if (this.busy() || this.form.invalid) return;
     this.busy.set(true);
     this.moveError.set('');

@@ -8,7 +8,7 @@ import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
-import type { CommentThread, ThreadAnchor, ThreadStatus } from '../../../shared/reviews';
+import type { CommentThread, PersonRef, ThreadAnchor, ThreadStatus } from '../../../shared/reviews';
 import { apiErrorMessage, type ApiErrorMessage } from '../core/api-error-message';
 import { remote } from '../core/remote';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
@@ -89,6 +89,10 @@ export class ThreadList {
   protected readonly busyThread = signal<string | null>(null);
   protected readonly threadErrors = signal<Record<string, string>>({});
   protected readonly newError = signal('');
+
+  protected mentionNames(people: readonly PersonRef[]): string {
+    return people.map((p) => p.name).join(', ');
+  }
 
   protected setFilter(value: Filter): void {
     this.filter.set(value);
