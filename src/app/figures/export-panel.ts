@@ -92,6 +92,7 @@ import { pixelSizeText } from './figure-geometry';
     .fields {
       display: grid;
       grid-template-columns: repeat(auto-fill, minmax(150px, 1fr));
+      align-items: start;
       gap: 12px;
     }
     .size,

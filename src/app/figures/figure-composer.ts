@@ -253,7 +253,9 @@ export default class FigureComposer {
     }
     const failure = apiErrorMessage(error);
     if (error.status === 409) {
-      this.saveMessage.set(`${failure.message} The figure was reloaded with the newest version; make your change again.`);
+      // The server's sentence asks to reload; this screen has just done so.
+      const stale = failure.message.replace(/\s*Reload, then edit again\.?/, '');
+      this.saveMessage.set(`${stale} The newest version is shown now; make your change again.`);
       this.figure.reload();
       return;
     }

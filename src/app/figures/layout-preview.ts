@@ -22,7 +22,7 @@ interface PreviewBox {
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     @if (layout(); as l) {
-      <div class="sheet" role="img" [attr.aria-label]="description()" [style.aspect-ratio]="l.width + ' / ' + l.height">
+      <div class="sheet" role="img" [attr.aria-label]="description()" [style.aspect-ratio]="l.width + ' / ' + l.height" [style.width]="sheetWidth()">
         @for (p of boxes(); track p.key) {
           <div class="box" [style.left.%]="p.box.left" [style.top.%]="p.box.top" [style.width.%]="p.box.width" [style.height.%]="p.box.height">
             @if (p.picture; as pic) {
@@ -51,7 +51,7 @@ interface PreviewBox {
     }
     .sheet {
       position: relative;
-      width: 100%;
+      margin: 0 auto;
       background: #fff;
       outline: 1px solid var(--mat-sys-outline-variant);
       box-shadow: 0 2px 10px rgb(0 0 0 / 12%);
@@ -151,6 +151,12 @@ export class LayoutPreview {
     const spec = this.spec();
     if (spec.panels.length === 0) return null;
     return layoutPanels(spec, this.widthMm(), this.dpi());
+  });
+
+  /** Full width, but never taller than about half the window: tall one-column figures shrink. */
+  protected readonly sheetWidth = computed(() => {
+    const l = this.layout();
+    return l ? `min(100%, calc(55vh * ${(l.width / l.height).toFixed(4)}))` : '100%';
   });
 
   protected readonly boxes = computed<PreviewBox[]>(() => {
