@@ -86,7 +86,7 @@ export class CommentBox {
     this.text.markAsTouched();
     const body = this.text.value.trim();
     if (this.text.invalid || body === '') {
-      if (body === '') this.text.setErrors({ required: true });
+      if (body === '') this.text.setErrors({ server: 'Write something first; the comment is empty.' });
       return null;
     }
     return { body, mentions: mentionedIds(body, this.chosen()) };

@@ -72,10 +72,23 @@ export function centreAnchor(width: number, height: number): ThreadAnchor {
   return { kind: 'point', at: [Math.round(width / 2), Math.round(height / 2)] };
 }
 
-/** A typed point, or the reason it cannot be used (outside the image, not a number). */
-export function typedPoint(x: number | null, y: number | null, width: number, height: number): ThreadAnchor | string {
-  if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y)) return 'Give both x and y in image pixels.';
-  if (x < 0 || y < 0 || x > width || y > height) return `The point must lie inside the image (0–${width} × 0–${height} px).`;
+/** What is wrong with each typed coordinate; null where that one is fine. */
+export interface PointProblems {
+  x: string | null;
+  y: string | null;
+}
+
+/** One typed coordinate against the image side it lies along, or why it cannot be used. */
+function coordinateProblem(value: number | null, size: number): string | null {
+  if (value === null || !Number.isFinite(value)) return 'Give a number of pixels.';
+  if (value < 0 || value > size) return `Between 0 and ${size} px.`;
+  return null;
+}
+
+/** A typed point as an anchor, or the problem of each coordinate (outside the image, missing). */
+export function typedPoint(x: number | null, y: number | null, width: number, height: number): ThreadAnchor | PointProblems {
+  const problems = { x: coordinateProblem(x, width), y: coordinateProblem(y, height) };
+  if (problems.x || problems.y || x === null || y === null) return problems;
   return { kind: 'point', at: [x, y] };
 }
 

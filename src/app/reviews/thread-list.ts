@@ -173,15 +173,15 @@ export class ThreadList {
     const { pin, x, y } = this.anchorForm.getRawValue();
     if (pin === 'centre') return centreAnchor(this.imageWidth(), this.imageHeight());
     const result = typedPoint(x, y, this.imageWidth(), this.imageHeight());
-    if (typeof result === 'string') {
-      const c = this.anchorForm.controls;
-      c.x.setErrors({ server: result });
-      c.y.setErrors({ server: result });
-      c.x.markAsTouched();
-      c.y.markAsTouched();
-      return null;
+    if ('kind' in result) return result;
+    const c = this.anchorForm.controls;
+    for (const [control, problem] of [[c.x, result.x], [c.y, result.y]] as const) {
+      if (problem) {
+        control.setErrors({ server: problem });
+        control.markAsTouched();
+      }
     }
-    return result;
+    return null;
   }
 
   /** Body problems go under the comment, anchor problems beside the coordinates; the rest is returned. */
