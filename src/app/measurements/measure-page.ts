@@ -25,7 +25,7 @@ import { MeasurementsApi } from './measurements-api';
 import { MeasureResult } from './measure-result';
 import { SavedMeasurements } from './saved-measurements';
 import { formatCount, formatDuration, formatUmPerPx } from './measure-units';
-import { markNear, snapToTestLine } from './test-line-snap';
+import { markNear, pathSegments, snapToSegments } from './test-line-snap';
 
 type Kind = 'intercept' | 'point_count' | 'thickness';
 /** How close (screen px) a click must land to a line, mark or grid point. */
@@ -77,6 +77,8 @@ export default class MeasurePage {
   /** The measurement reopened for editing (PATCH with its version), or null for a new one. */
   protected readonly editing = signal<Measurement | null>(null);
   protected readonly result = signal<Measurement | null>(null);
+  /** Set once the pattern or where of a reopened measurement changes: the server then lays the pattern anew. */
+  protected readonly patternDirty = signal(false);
 
   protected readonly markKindLabels = MARK_KIND_LABELS;
   protected readonly canMeasure = computed(() => this.project.value()?.allowed.includes('measure') ?? false);
@@ -92,8 +94,23 @@ export default class MeasurePage {
     return f ? bandFrame(f.shapes, f.classes) : { interfaces: [], axis: 'x' as const, bands: [] };
   });
   protected readonly interfacePaths = computed(() => this.bands().interfaces.map((line) => line.map((p) => p.join(',')).join(' ')));
-  protected readonly pattern = computed(() => patternOf(this.form(), this.size().w, this.size().h, this.umPerPx() ?? 1));
-  protected readonly testLines = computed(() => (this.calibrated() && this.kind() === 'intercept' ? patternLines(this.pattern(), this.size().w, this.size().h, this.umPerPx()!) : []));
+  /** A reopened measurement keeps the pixel size it was computed at (the server lays its pattern at that size). */
+  protected readonly layUmPerPx = computed(() => this.editing()?.pixelSize.umPerPx ?? this.umPerPx());
+  protected readonly pattern = computed(() => patternOf(this.form(), this.size().w, this.size().h, this.layUmPerPx() ?? 1));
+  /** The lines as the server laid and counted them, while a reopened pattern is unchanged (marks were placed on them). */
+  protected readonly storedPaths = computed(() => {
+    const e = this.editing();
+    return e && e.kind === 'intercept' && !this.patternDirty() ? e.testLines : null;
+  });
+  protected readonly storedPolylines = computed(() => (this.storedPaths() ?? []).flatMap((p) => p.pieces.map((piece) => piece.map((q) => q.join(',')).join(' '))));
+  protected readonly testLines = computed(() =>
+    this.calibrated() && this.kind() === 'intercept' && !this.storedPaths() ? patternLines(this.pattern(), this.size().w, this.size().h, this.layUmPerPx()!) : [],
+  );
+  private readonly snapSegments = computed(() => {
+    const stored = this.storedPaths();
+    return stored ? pathSegments(stored) : this.testLines().map((seg, line) => ({ line, seg }));
+  });
+  protected readonly lineCount = computed(() => this.storedPaths()?.length ?? this.testLines().length);
   protected readonly segments = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'segment'));
   /** With a band chosen, the parts of the straight lines that count are drawn bright over the faint full lines. */
   protected readonly countedPieces = computed(() => {
@@ -105,11 +122,11 @@ export default class MeasurePage {
   protected readonly grid = computed(() => {
     const um = this.umPerPx();
     if (!um || this.kind() !== 'point_count' || !(this.gridSpacingUm() > 0)) return [];
-    const pts = gridPoints(this.size().w, this.size().h, this.gridSpacingUm() / um);
+    const pts = gridPoints(this.size().w, this.size().h, this.gridSpacingUm() / (this.layUmPerPx() ?? um));
     return pts.length > 5000 ? [] : pts.filter((p) => insideWhere(this.bands(), this.band(), p));
   });
   protected readonly markKinds = computed(() => markKindsFor(this.form().type, this.rules()));
-  protected readonly counts = computed(() => liveCounts(this.marks(), this.testLines().length, this.rules()));
+  protected readonly counts = computed(() => liveCounts(this.marks(), this.lineCount(), this.rules()));
   protected readonly countSymbol = computed(() => (this.rules().count === 'intercepts' ? 'N' : 'P'));
   protected readonly perLine = computed(() => this.counts().perLine.map((v, i) => ({ line: i, text: formatCount(v) })));
   protected readonly totalText = computed(() => formatCount(this.counts().total));
@@ -149,6 +166,7 @@ export default class MeasurePage {
   protected changePattern(change: Partial<PatternForm>): void {
     const before = this.form().type;
     this.form.update((f) => ({ ...f, ...change }));
+    this.patternDirty.set(true);
     if (change.type && change.type !== before) this.rules.set(defaultRules(change.type));
     if (!this.markKinds().includes(this.markKind())) this.markKind.set('crossing');
     this.marks.set([]);
@@ -159,6 +177,7 @@ export default class MeasurePage {
 
   protected changeBand(value: string): void {
     this.band.set(Number(value));
+    this.patternDirty.set(true);
     this.marks.update((ms) => ms.filter((m) => insideWhere(this.bands(), this.band(), [m.x, m.y])));
     this.pointMarks.set([]);
     this.clearResult();
@@ -184,7 +203,8 @@ export default class MeasurePage {
       else this.removeMark(hit);
       return;
     }
-    const snapped = snapToTestLine(p, this.testLines(), reach, (q) => insideWhere(this.bands(), this.band(), q));
+    const inside = (q: Point) => this.storedPaths() !== null || insideWhere(this.bands(), this.band(), q);
+    const snapped = snapToSegments(p, this.snapSegments(), reach, inside);
     if (!snapped) return;
     const [x, y] = snapped.point;
     const moving = this.selectedSuggestion();
@@ -194,7 +214,7 @@ export default class MeasurePage {
       this.selectedSuggestion.set(-1);
       return;
     }
-    const kind = this.testLines()[snapped.line]!.kind === 'circle' && this.markKind() === 'line_end' ? 'crossing' : this.markKind();
+    const kind = this.form().type !== 'lines' && this.markKind() === 'line_end' ? 'crossing' : this.markKind();
     this.marks.update((ms) => [...ms, { x, y, line: snapped.line, kind, status: 'confirmed' }]);
   }
 
@@ -246,7 +266,9 @@ export default class MeasurePage {
     this.saving.set(true);
     this.errorText.set('');
     this.fieldErrors.set({});
-    const { kind: _kind, ...changes } = body;
+    const { kind: _kind, ...all } = body;
+    // An unchanged pattern stays laid where its marks were placed; sending it would lay it anew.
+    const changes = this.patternDirty() ? all : omitLayout(all);
     const request = open && open.kind === body.kind
       ? this.api.update(this.projectId(), this.imageId(), open.id, { version: open.version, ...changes })
       : this.api.create(this.projectId(), this.imageId(), body);
@@ -254,6 +276,7 @@ export default class MeasurePage {
       next: (saved) => {
         this.result.set(saved);
         this.editing.set(saved);
+        this.patternDirty.set(false);
         this.saving.set(false);
         this.saved.reload();
       },
@@ -284,6 +307,7 @@ export default class MeasurePage {
       this.thicknessSpacingUm.set(d.spacingUm);
     }
     this.editing.set(m);
+    this.patternDirty.set(false);
     this.result.set(m);
     this.suggestNote.set('');
     this.errorText.set('');
@@ -291,6 +315,7 @@ export default class MeasurePage {
 
   protected startNew(): void {
     this.editing.set(null);
+    this.patternDirty.set(false);
     this.marks.set([]);
     this.pointMarks.set([]);
     this.clearResult();
@@ -343,4 +368,10 @@ export default class MeasurePage {
     this.errorText.set('');
     this.fieldErrors.set({});
   }
+}
+
+/** The definition without what lays the pattern (pattern, placement, grid, where), for a PATCH that keeps the stored layout. */
+function omitLayout<T extends object>(body: T): Partial<T> {
+  const { pattern: _p, placement: _o, grid: _g, where: _w, ...rest } = body as T & { pattern?: unknown; placement?: unknown; grid?: unknown; where?: unknown };
+  return rest as Partial<T>;
 }

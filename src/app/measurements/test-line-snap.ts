@@ -58,3 +58,24 @@ export function spacingToReach(count: number, acrossPx: number, umPerPx: number)
   const digits = Math.max(0, 2 - Math.floor(Math.log10(raw)));
   return Number(raw.toFixed(Math.min(digits, 4)));
 }
+
+/** A straight piece of a counted test line, named by the line it belongs to. */
+export interface LineSegment {
+  line: number;
+  seg: TestLine;
+}
+
+/** The straight pieces of test lines as the server counted them (circles arrive as fine polygons). Pure. */
+export function pathSegments(paths: readonly { line: number; pieces: readonly (readonly Point[])[] }[]): LineSegment[] {
+  return paths.flatMap((path) =>
+    path.pieces.flatMap((piece) =>
+      piece.slice(1).map((b, i) => ({ line: path.line, seg: { kind: 'segment' as const, a: piece[i]!, b, family: 'angle' as const } })),
+    ),
+  );
+}
+
+/** Like snapToTestLine, over named pieces: the answer names the test line the piece belongs to. Pure. */
+export function snapToSegments(p: Point, segments: readonly LineSegment[], tolerancePx: number, accept?: (q: Point) => boolean): SnappedClick | null {
+  const hit = snapToTestLine(p, segments.map((s) => s.seg), tolerancePx, accept);
+  return hit ? { ...hit, line: segments[hit.line]!.line } : null;
+}
