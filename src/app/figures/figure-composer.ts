@@ -128,6 +128,11 @@ export default class FigureComposer {
     if (code) this.pageTitle.setTitle(`${this.heading()} · ${code} · Etchfile`);
   });
 
+  /** True while edits are not saved (the route's leave guard asks before dropping them). */
+  hasUnsavedChanges(): boolean {
+    return this.dirty() && !this.saving() && this.canCompose();
+  }
+
   protected setHead(change: Partial<Omit<FigureSpec, 'panels'>>): void {
     this.head.update((h) => ({ ...h, ...change }));
     this.touch();
@@ -173,6 +178,7 @@ export default class FigureComposer {
         this.saving.set(false);
         this.problems.set(NO_PROBLEMS);
         if (!figureId) {
+          this.dirty.set(false);
           void this.router.navigate(['/projects', this.projectId(), 'figures', saved.id], { replaceUrl: true });
           return;
         }
@@ -193,7 +199,10 @@ export default class FigureComposer {
     }).subscribe((yes) => {
       if (!yes) return;
       this.figures.remove(this.projectId(), figureId).subscribe({
-        next: () => void this.router.navigate(['/projects', this.projectId(), 'figures']),
+        next: () => {
+          this.dirty.set(false);
+          void this.router.navigate(['/projects', this.projectId(), 'figures']);
+        },
         error: (error: unknown) => this.saveMessage.set(messageOf(error)),
       });
     });

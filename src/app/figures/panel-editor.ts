@@ -9,7 +9,7 @@ import { ANNOTATION_COLOURS, type AnnotationClass } from '../../../shared/annota
 import { BAR_POSITIONS, scaleLabel, type BarPosition, type PanelSpec } from '../../../shared/figures';
 import type { ImageSummary } from '../../../shared/images';
 import { ImageApi } from '../archive/image-api';
-import { regionSizeUm, sizeUmText, wholeImage, type Region } from './figure-geometry';
+import { regionFits, regionSizeUm, sizeUmText, wholeImage, type Region } from './figure-geometry';
 import { ImageChooser } from './image-chooser';
 import { RegionPicker } from './region-picker';
 
@@ -61,6 +61,11 @@ export class PanelEditor {
     const image = this.image();
     const um = image ? regionSizeUm(r, image.pixelSize.xUm, image.pixelSize.yUm) : null;
     return um ? `${px} · ${sizeUmText(um)}` : `${px} · no pixel size, so no scale bar`;
+  });
+  protected readonly regionProblem = computed(() => {
+    const image = this.image();
+    if (!image || regionFits(this.panel().region, image.width, image.height)) return null;
+    return `The region must lie inside the image (${image.width} × ${image.height} px) and be at least 16 px on each side.`;
   });
   protected readonly barText = computed(() => {
     const length = this.barLengthUm();
