@@ -190,6 +190,11 @@ export function barLengthsUm(panels: readonly BarInput[], common: boolean): (num
   });
 }
 
+/** Where a panel's legend goes: the letter holds the top-left corner, the bar its own; the first corner left free (as the server draws it). */
+export function legendCorner(barPosition: string): 'top-right' | 'bottom-left' | 'bottom-right' {
+  return (['top-right', 'bottom-left', 'bottom-right'] as const).find((c) => c !== barPosition)!;
+}
+
 function clamp(v: number, lo: number, hi: number): number {
   return Math.min(hi, Math.max(lo, v));
 }

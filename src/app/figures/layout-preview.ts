@@ -1,7 +1,9 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { layoutPanels, scaleLabel, type FigureSpec } from '../../../shared/figures';
 import type { ImageSummary } from '../../../shared/images';
+import { ANNOTATION_COLOURS, type AnnotationClass } from '../../../shared/annotations/annotations';
 import { ImageApi } from '../archive/image-api';
+import { legendCorner } from './figure-geometry';
 
 interface PreviewBox {
   key: number;
@@ -10,6 +12,7 @@ interface PreviewBox {
   box: { left: number; top: number; width: number; height: number };
   picture: { url: string; left: number; top: number; width: number; height: number } | null;
   bar: { width: number; label: string; position: string; colour: string } | null;
+  legend: { corner: string; entries: { id: string; name: string; colour: string }[] } | null;
 }
 
 /**
@@ -32,6 +35,13 @@ interface PreviewBox {
             }
             @if (p.letter) {
               <span class="letter">{{ p.letter }}</span>
+            }
+            @if (p.legend; as legend) {
+              <span class="legend {{ legend.corner }}">
+                @for (e of legend.entries; track e.id) {
+                  <span class="entry"><span class="swatch" [style.background]="e.colour"></span>{{ e.name }}</span>
+                }
+              </span>
             }
             @if (p.bar; as bar) {
               <span class="bar {{ bar.position }}" [class.dark]="bar.colour === 'black'" [style.width.%]="bar.width">
@@ -127,6 +137,39 @@ interface PreviewBox {
       left: 5%;
       top: 14%;
     }
+    .legend {
+      position: absolute;
+      display: flex;
+      flex-direction: column;
+      gap: 1px;
+      padding: 2px 4px;
+      background: rgb(255 255 255 / 80%);
+      color: #000;
+      font-size: clamp(6px, 1.3cqi, 11px);
+      line-height: 1.2;
+    }
+    .legend.top-right {
+      right: 3%;
+      top: 3%;
+    }
+    .legend.bottom-left {
+      left: 3%;
+      bottom: 3%;
+    }
+    .legend.bottom-right {
+      right: 3%;
+      bottom: 3%;
+    }
+    .entry {
+      display: flex;
+      align-items: center;
+      gap: 3px;
+      white-space: nowrap;
+    }
+    .swatch {
+      width: 0.9em;
+      height: 0.7em;
+    }
     .empty {
       margin: 0;
       padding: 24px;
@@ -143,6 +186,7 @@ export class LayoutPreview {
   /** Stable keys per panel, in panel order (for tracking). */
   readonly keys = input.required<readonly number[]>();
   readonly imagesById = input.required<Readonly<Record<string, ImageSummary>>>();
+  readonly classes = input<readonly AnnotationClass[]>([]);
   readonly barLengthsUm = input.required<readonly (number | null)[]>();
   readonly widthMm = input.required<number>();
   readonly dpi = input.required<number>();
@@ -163,6 +207,7 @@ export class LayoutPreview {
     const l = this.layout();
     if (!l) return [];
     const panels = this.spec().panels;
+    const classes = new Map(this.classes().map((c) => [c.id, c]));
     return l.boxes.map((b, i) => {
       const panel = panels[i]!;
       const image = this.imagesById()[panel.imageId];
@@ -187,6 +232,15 @@ export class LayoutPreview {
           length !== null && xUm
             ? { width: (length / (r.width * xUm)) * 100, label: scaleLabel(length), position: panel.scaleBar.position, colour: panel.scaleBar.colour }
             : null,
+        legend: panel.legend && panel.classIds.some((id) => classes.has(id))
+          ? {
+              corner: legendCorner(panel.scaleBar.position),
+              entries: panel.classIds.flatMap((id) => {
+                const c = classes.get(id);
+                return c ? [{ id, name: c.name, colour: ANNOTATION_COLOURS[c.colour] }] : [];
+              }),
+            }
+          : null,
       };
     });
   });
