@@ -39,6 +39,8 @@ export default class ImagePage {
   /** Route parameters. */
   readonly projectId = input.required<string>();
   readonly imageId = input.required<string>();
+  /** Query parameter: a thread to show (notification links carry it). */
+  readonly thread = input<string | undefined>();
 
   private readonly reviewPanel = viewChild(ReviewPanel);
 

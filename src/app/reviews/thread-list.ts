@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, DOCUMENT, effect, inject, input, linkedSignal, output, signal, viewChild } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
@@ -45,6 +45,7 @@ type Filter = ThreadStatus | 'all';
 })
 export class ThreadList {
   private readonly api = inject(ReviewApi);
+  private readonly document = inject(DOCUMENT);
 
   readonly projectId = input.required<string>();
   readonly imageId = input.required<string>();
@@ -52,12 +53,15 @@ export class ThreadList {
   readonly imageHeight = input.required<number>();
   readonly members = input<readonly Mentionable[]>([]);
   readonly canComment = input(false);
+  /** A thread to bring into view once loaded (from a notification link, ?thread=…). */
+  readonly focusThread = input<string | null>(null);
   /** A thread was opened, resolved or reopened: the open count of the review changed. */
   readonly changed = output<void>();
 
   private readonly newBox = viewChild<CommentBox>('newBox');
 
-  protected readonly filter = signal<Filter>('open');
+  /** Open threads first; all of them when a link points at one, which may be resolved by now. */
+  protected readonly filter = linkedSignal<Filter>(() => (this.focusThread() ? 'all' : 'open'));
   private readonly query = computed(() => ({ projectId: this.projectId(), imageId: this.imageId(), status: this.filter() }));
   protected readonly threads = remote(this.query, ({ projectId, imageId, status }) => this.api.threads(projectId, imageId, status));
   protected readonly rows = computed(() =>
@@ -89,6 +93,19 @@ export class ThreadList {
   protected readonly busyThread = signal<string | null>(null);
   protected readonly threadErrors = signal<Record<string, string>>({});
   protected readonly newError = signal('');
+
+  private scrolledTo: string | null = null;
+  private readonly bringFocusedIntoView = effect(() => {
+    const id = this.focusThread();
+    if (!id || id === this.scrolledTo || !this.rows().some((r) => r.thread.id === id)) return;
+    this.scrolledTo = id;
+    // After this render, when the thread's element exists.
+    setTimeout(() => {
+      const el = this.document.getElementById(`thread-${id}`);
+      el?.scrollIntoView({ block: 'center' });
+      el?.focus({ preventScroll: true });
+    });
+  });
 
   protected mentionNames(people: readonly PersonRef[]): string {
     return people.map((p) => p.name).join(', ');
