@@ -282,7 +282,7 @@ export default class MeasurePage {
       },
       error: (error) => {
         const problem = apiErrorMessage(error);
-        const details = Object.values(problem.fieldErrors);
+        const details = Object.values(problem.fieldErrors).filter((d) => !problem.message.includes(d));
         this.errorText.set(details.length > 0 ? `${problem.message} ${details.slice(0, 3).join(' ')}` : problem.message);
         this.fieldErrors.set(problem.fieldErrors);
         this.saving.set(false);
