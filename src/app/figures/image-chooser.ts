@@ -36,6 +36,9 @@ import { remote } from '../core/remote';
               <button type="button" class="pick" [class.chosen]="image.id === chosenId()" [attr.aria-pressed]="image.id === chosenId()" (click)="picked.emit(image)">
                 <img [src]="thumbnailUrl(image)" alt="" loading="lazy" />
                 <span class="name">{{ image.originalName }}</span>
+                @if (image.pixelSize.xUm === null) {
+                  <span class="uncalibrated">no pixel size: no scale bar</span>
+                }
               </button>
             </li>
           }
@@ -96,6 +99,10 @@ import { remote } from '../core/remote';
     .name {
       font: var(--mat-sys-label-small);
       overflow-wrap: anywhere;
+    }
+    .uncalibrated {
+      font: var(--mat-sys-label-small);
+      color: var(--mat-sys-error);
     }
     .empty,
     .more,
