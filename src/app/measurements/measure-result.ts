@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { Measurement } from '../../../shared/measurements/measurement-records';
 import { formatUmPerPx } from './measure-units';
-import { resultRows } from './result-rows';
+import { groupRows, resultRows } from './result-rows';
 
 /** The server's numbers for one saved measurement, with units and the sentences that belong beside them. */
 @Component({
@@ -10,12 +10,19 @@ import { resultRows } from './result-rows';
   template: `
     <section class="card result" aria-labelledby="result-heading">
       <h2 id="result-heading">Saved result · {{ measurement().whereLabel }}</h2>
-      <dl>
-        @for (row of rows(); track row.label + (row.sub ?? '')) {
-          <div><dt>{{ row.label }}@if (row.sub) {<sub>{{ row.sub }}</sub>}</dt><dd class="ef-number">{{ row.value }}</dd></div>
+      @for (group of groups(); track group.title) {
+        @if (group.title) {
+          <h3>{{ group.title }}</h3>
         }
-        <div><dt>Pixel size used</dt><dd class="ef-number">{{ pixel() }}</dd></div>
-      </dl>
+        <dl>
+          @for (row of group.rows; track row.label + (row.sub ?? '')) {
+            <div><dt>{{ row.label }}@if (row.sub) {<sub>{{ row.sub }}</sub>}</dt><dd class="ef-number">{{ row.value }}</dd></div>
+          }
+          @if ($first) {
+            <div><dt>Pixel size used</dt><dd class="ef-number">{{ pixel() }}</dd></div>
+          }
+        </dl>
+      }
       @if (measurement().stale; as stale) {
         <p class="stale" role="alert">{{ stale.message }}</p>
       }
@@ -27,6 +34,7 @@ import { resultRows } from './result-rows';
   styles: `
     .card { border: 1px solid var(--mat-sys-outline-variant); border-radius: 12px; padding: 16px; background: var(--mat-sys-surface-container-low); }
     h2 { margin: 0 0 8px; font: var(--mat-sys-title-medium); }
+    h3 { margin: 12px 0 4px; font: var(--mat-sys-title-small); }
     dl { display: grid; grid-template-columns: repeat(auto-fill, minmax(220px, 1fr)); gap: 8px 24px; margin: 0; }
     dt { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-label-medium); }
     dd { margin: 0; font: var(--mat-sys-title-medium); }
@@ -37,6 +45,6 @@ import { resultRows } from './result-rows';
 export class MeasureResult {
   readonly measurement = input.required<Measurement>();
 
-  protected readonly rows = computed(() => resultRows(this.measurement().result));
+  protected readonly groups = computed(() => groupRows(resultRows(this.measurement().result)));
   protected readonly pixel = computed(() => `${formatUmPerPx(this.measurement().pixelSize.umPerPx)} (${this.measurement().pixelSize.source})`);
 }

@@ -7,16 +7,19 @@ export interface ResultRow {
   /** Set for quantities written with a subscript (P_L, N_L): label, then `sub` lowered. */
   sub?: string;
   value: string;
+  /** 'Along' or 'Across' for a pattern laid both ways; unset for the field as a whole. */
+  group?: string;
 }
 
-function interceptRows(f: InterceptFigures, symbol: 'P' | 'N', prefix = ''): ResultRow[] {
-  return [
-    { label: `${prefix}Total test line length`, value: formatLength(f.lineLengthUm) },
-    { label: `${prefix}${symbol} (${symbol === 'P' ? 'intersections' : 'intercepts'})`, value: formatCount(f.count) },
-    { label: `${prefix}${symbol}`, sub: 'L', value: formatPerMm(f.perMm) },
-    { label: `${prefix}Mean lineal intercept l̄`, value: formatUm(f.meanInterceptUm, 2) },
-    { label: `${prefix}ASTM grain size G`, value: formatG(f.g) },
+function interceptRows(f: InterceptFigures, symbol: 'P' | 'N', group?: string): ResultRow[] {
+  const rows: ResultRow[] = [
+    { label: 'Total test line length', value: formatLength(f.lineLengthUm) },
+    { label: `${symbol} (${symbol === 'P' ? 'intersections' : 'intercepts'})`, value: formatCount(f.count) },
+    { label: symbol, sub: 'L', value: formatPerMm(f.perMm) },
+    { label: 'Mean lineal intercept l̄', value: formatUm(f.meanInterceptUm, 2) },
+    { label: 'ASTM grain size G', value: formatG(f.g) },
   ];
+  return group ? rows.map((r) => ({ ...r, group })) : rows;
 }
 
 /** A saved result as label/value rows with units, for the result card and the saved list. Pure. */
@@ -24,7 +27,7 @@ export function resultRows(r: MeasurementResult): ResultRow[] {
   if (r.kind === 'intercept') {
     const rows = interceptRows(r, r.countSymbol);
     if (r.byDirection) {
-      rows.push(...interceptRows(r.byDirection.along, r.countSymbol, 'Along: '), ...interceptRows(r.byDirection.across, r.countSymbol, 'Across: '));
+      rows.push(...interceptRows(r.byDirection.along, r.countSymbol, 'Along the interfaces'), ...interceptRows(r.byDirection.across, r.countSymbol, 'Across the interfaces'));
       if (r.byDirection.anisotropyIndex !== null) rows.push({ label: 'Anisotropy index l̄∥ / l̄⊥', value: r.byDirection.anisotropyIndex.toFixed(2) });
     }
     return rows;
@@ -49,4 +52,16 @@ export function resultGist(r: MeasurementResult): string {
   if (r.kind === 'intercept') return `${r.countSymbol} = ${formatCount(r.count)}, l̄ = ${formatUm(r.meanInterceptUm, 2)}, G = ${formatG(r.g)}`;
   if (r.kind === 'point_count') return `point fraction ${(r.pointFraction * 100).toFixed(1)} % ${r.phaseName}`;
   return `thickness ${formatUm(r.meanUm, 2)} ± ${formatUm(r.sUm, 2)}`;
+}
+
+/** Rows gathered by group, in order of first appearance (the whole field first). Pure. */
+export function groupRows(rows: readonly ResultRow[]): { title: string; rows: ResultRow[] }[] {
+  const groups: { title: string; rows: ResultRow[] }[] = [];
+  for (const row of rows) {
+    const title = row.group ?? '';
+    let g = groups.find((x) => x.title === title);
+    if (!g) groups.push((g = { title, rows: [] }));
+    g.rows.push(row);
+  }
+  return groups;
 }

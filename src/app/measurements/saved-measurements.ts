@@ -23,7 +23,7 @@ const KIND_NAMES: Record<Measurement['kind'], string> = { intercept: 'Grain size
           @for (m of list(); track m.id) {
             <li [class.open]="m.id === openId()">
               <div class="what">
-                <strong>{{ kindName(m) }}</strong> · {{ m.whereLabel }} · <span class="ef-number">{{ gist(m) }}</span>
+                <span><strong>{{ kindName(m) }}</strong> · {{ m.whereLabel }} · <span class="ef-number">{{ gist(m) }}</span></span>
                 <span class="who">{{ m.authorName }}, {{ m.updatedAt | date: 'medium' }}, version {{ m.version }}</span>
                 @if (m.stale; as stale) {
                   <span class="stale" role="alert">{{ stale.message }}</span>
