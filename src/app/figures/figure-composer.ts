@@ -9,7 +9,7 @@ import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
 import { Router, RouterLink } from '@angular/router';
-import { forkJoin, of } from 'rxjs';
+import { catchError, forkJoin, map, of } from 'rxjs';
 import { isApiErrorBody } from '../../../shared/api-error';
 import type { Figure, FigureSpec, PanelSpec } from '../../../shared/figures';
 import type { ImageSummary } from '../../../shared/images';
@@ -248,9 +248,20 @@ export default class FigureComposer {
     const missing = [...new Set(ids)].filter((id) => id && !known[id]);
     if (missing.length === 0) return;
     this.imagesError.set(null);
-    forkJoin(missing.map((id) => this.imageApi.get(this.projectId(), id))).subscribe({
-      next: (images) => this.imagesById.update((map) => ({ ...map, ...Object.fromEntries(images.map((i) => [i.id, i])) })),
-      error: (error: unknown) => this.imagesError.set(`Some panel images could not be loaded: ${messageOf(error)}`),
+    // One image that is gone must not keep the others from showing: each failure becomes null.
+    const loads = missing.map((id) =>
+      this.imageApi.get(this.projectId(), id).pipe(
+        map((image): ImageSummary | string => image),
+        catchError((error: unknown) => of(messageOf(error))),
+      ),
+    );
+    forkJoin(loads).subscribe((results) => {
+      const found = results.filter((r): r is ImageSummary => typeof r !== 'string');
+      const failures = results.filter((r): r is string => typeof r === 'string');
+      this.imagesById.update((known) => ({ ...known, ...Object.fromEntries(found.map((i) => [i.id, i])) }));
+      if (failures.length > 0) {
+        this.imagesError.set(`${failures.length} panel image${failures.length === 1 ? '' : 's'} could not be loaded (${failures[0]}). Choose another image for those panels or remove them.`);
+      }
     });
   }
 
