@@ -54,12 +54,22 @@ export async function openApp(browser: Browser): Promise<AppPage> {
   return { context, page, foreignRequests, url: (p: string) => origin + p };
 }
 
-/** Signs in through the sign-in form and waits for the project list. */
+/** How long a sign-in may take on a busy shared machine before it counts as failed. */
+const SIGN_IN_MS = 15_000;
+
+/** Signs in through the sign-in form and waits for the project list; a refusal fails at once with its message. */
 export async function signInThroughForm(app: AppPage, email: string, password: string): Promise<void> {
   const { page } = app;
   await page.goto(app.url('/sign-in'));
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password', { exact: true }).fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(/\/projects/);
+  const refusal = page.getByRole('alert');
+  const deadline = Date.now() + SIGN_IN_MS;
+  for (;;) {
+    if (new URL(page.url()).pathname === '/projects') return;
+    if ((await refusal.count()) > 0) throw new Error(`sign-in as ${email} was refused: ${(await refusal.allTextContents()).join(' ')}`);
+    if (Date.now() > deadline) throw new Error(`sign-in as ${email} did not reach /projects within ${SIGN_IN_MS} ms; the page is at ${page.url()}`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
 }
