@@ -72,7 +72,12 @@ function serveClient(app: Express, clientDir: string): void {
       },
     }),
   );
-  app.get('/{*splat}', (_req, res) => {
+  app.get('/{*splat}', (req, res) => {
+    // A missing file (an old chunk after a redeploy) is a 404, not the app page served as a script.
+    if (path.extname(req.path)) {
+      res.status(404).type('text').send('Not found.');
+      return;
+    }
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(path.join(clientDir, 'index.html'), (err) => {
       if (err) res.status(503).type('text').send('The client is not built yet. Run `npm start`, which builds it.');
