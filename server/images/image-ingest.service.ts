@@ -3,6 +3,7 @@ import type { UploadFields, UploadResult } from '../../shared/images';
 import type { AppContext } from '../app-context';
 import { SpecimenLocation } from '../archive/specimen-location.entity';
 import { Specimen } from '../archive/specimen.entity';
+import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
 import { Image } from './image.entity';
 import { imageKeys } from './image-keys';
@@ -45,6 +46,7 @@ export class ImageIngestService {
       imageId = await this.ctx.dataSource.transaction(async (m) => {
         const row = await m.save(m.create(Image, this.row(projectId, uploaderId, name, file, facts, fields, originalKey)));
         await this.ctx.jobs.enqueueDerivatives(row.id, m);
+        await recordActivity(m, { projectId, imageId: row.id, actorId: uploaderId, action: 'image.uploaded', summary: `uploaded ${name}`, details: { sha256: file.sha256 } });
         return row.id;
       });
     } catch (err) {

@@ -46,7 +46,7 @@ export class ImagesController {
   };
 
   remove: RequestHandler = async (req, res) => {
-    await this.images.remove(param(req, 'projectId'), param(req, 'imageId'));
+    await this.images.remove(currentUser(req), param(req, 'projectId'), param(req, 'imageId'));
     res.status(204).end();
   };
 

@@ -71,14 +71,21 @@ export class ImagesService {
       Object.assign(changes, { pixelSizeConfirmed: true, pixelSizeNote: `${image.pixelSizeNote.replace(/ Confirmed by .*$/, '')} Confirmed by ${byWhom}.` });
     }
     await this.ds.getRepository(Image).update({ id: imageId }, changes);
+    const described = [...Object.keys(plain), ...(acquiredAt !== undefined ? ['acquiredAt'] : [])];
+    if (described.length > 0) {
+      await recordActivity(this.ds.manager, { projectId, imageId, actorId: editorId, action: 'image.updated', summary: `edited ${image.originalName} (${described.join(', ')})` });
+    }
     if (pixelSizeUm !== undefined) await returnToDraftIfCleared(this.ds.manager, imageId, editorId, 'the pixel size');
     return this.detail(projectId, imageId);
   }
 
   /** Removes the row first, then its files: a failure in between leaves unreferenced files, never a row without its files. */
-  async remove(projectId: string, imageId: string): Promise<void> {
+  async remove(actor: Express.User, projectId: string, imageId: string): Promise<void> {
     const image = await this.find(projectId, imageId);
-    await this.ds.getRepository(Image).delete({ id: imageId });
+    await this.ds.transaction(async (m) => {
+      await m.delete(Image, { id: imageId });
+      await recordActivity(m, { projectId, imageId, actorId: actor.id, action: 'image.deleted', summary: `deleted ${image.originalName}`, details: { sha256: image.sha256 } });
+    });
     await this.ctx.files.delete(image.originalKey);
     await this.ctx.files.deletePrefix(imageKeys.derivatives(projectId, imageId));
   }

@@ -1,3 +1,4 @@
+import { ActivityTimeline } from '../activity/activity-timeline';
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatAnchor } from '@angular/material/button';
 import { MatIcon } from '@angular/material/icon';
@@ -10,7 +11,7 @@ import { SampleList } from './sample-list';
 /** The project's catalogue on its page: samples and the materials they are made of, and the way to its images. */
 @Component({
   selector: 'ef-project-archive',
-  imports: [MatAnchor, MatIcon, MatTab, MatTabContent, MatTabGroup, MaterialList, RouterLink, SampleList],
+  imports: [ActivityTimeline, MatAnchor, MatIcon, MatTab, MatTabContent, MatTabGroup, MaterialList, RouterLink, SampleList],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <div class="archive-head">
@@ -35,6 +36,11 @@ import { SampleList } from './sample-list';
       <mat-tab label="Materials">
         <ng-template matTabContent>
           <ef-material-list class="tab-body" [project]="project()" />
+        </ng-template>
+      </mat-tab>
+      <mat-tab label="History">
+        <ng-template matTabContent>
+          <ef-activity-timeline class="tab-body" [projectId]="project().id" />
         </ng-template>
       </mat-tab>
     </mat-tab-group>

@@ -4,6 +4,8 @@ import { mountApp, type ApiClient } from '../../support/api-client';
 import { makeImageRow } from '../../support/catalogue-fixtures';
 import { makeProject, makeUser, signedIn, unique } from '../../support/fixtures';
 import { runningServer } from '../../support/test-server';
+import sharp from 'sharp';
+import { archiveScene, fieldsFor, upload, waitForState } from '../images/image-fixtures';
 
 describe('activity history', () => {
   let app: Awaited<ReturnType<typeof mountApp>>;
@@ -39,6 +41,23 @@ describe('activity history', () => {
     expect(project.items[0].summary).to.contain('0.5 µm/px to 0.25 µm/px');
     const image = (await guest.get(`/api/projects/${projectId}/activity?imageId=${imageId}`)).body;
     expect(image.total).to.equal(3);
+  });
+
+  it('when an image is uploaded, described and deleted, then each is on the timeline', async () => {
+    const scene = await archiveScene(app.url);
+    const bytes = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#888' } }).png().toBuffer();
+    const up = await upload(scene.client, scene.project.id, bytes, 'field.png', fieldsFor(scene));
+    expect(up.status).to.equal(201);
+    const id = up.body.image.id;
+    expect((await scene.client.patch(`/api/projects/${scene.project.id}/images/${id}`, { notes: 'etched twice' })).status).to.equal(200);
+    const lead = await makeUser();
+    await ds().query(`INSERT INTO project_memberships (project_id, user_id, role) VALUES ($1, $2, 'lead')`, [scene.project.id, lead.id]);
+    const leadClient = await signedIn(app.url, lead);
+    await waitForState(id);
+    expect((await leadClient.delete(`/api/projects/${scene.project.id}/images/${id}`)).status).to.equal(204);
+    const events = (await leadClient.get(`/api/projects/${scene.project.id}/activity?imageId=${id}`)).body;
+    expect(events.items.map((e: { action: string }) => e.action)).to.deep.equal(['image.deleted', 'image.updated', 'image.uploaded']);
+    expect(events.items[2].summary).to.equal('uploaded field.png');
   });
 
   it('when anyone tries to change or delete a recorded event, then the database refuses', async () => {
