@@ -1,0 +1,52 @@
+import { expect } from 'chai';
+import type { AcrossFields, InterceptSummary } from '../../../../shared/measurements/measurement-records';
+import { interceptBars, rowLabel } from '../../../../src/app/measurements/summary-plot-data';
+
+const across = (n: number, mean: number, ci95: number | null): AcrossFields => ({ n, mean, s: null, ci95, relativeAccuracyPct: null, relativeAccuracyWarning: false });
+const row = (where: string, direction: InterceptSummary['direction'], meanIntercept: AcrossFields, phase: string | null = null): InterceptSummary => ({
+  where,
+  staleFields: 0,
+  emptyFields: 0,
+  warnings: [],
+  direction,
+  phase,
+  meanIntercept,
+  g: 6,
+  gIso: 6,
+  totalCount: 100,
+  totalLineLengthUm: 4000,
+  countSymbols: ['P'],
+  anisotropyIndex: null,
+});
+
+describe('client: summary plot data', () => {
+  it('labels a row by where, direction in words and phase', () => {
+    expect(rowLabel({ where: 'band 2', direction: 'along', phase: null })).to.equal('band 2 · along');
+    expect(rowLabel({ where: 'whole image', direction: 'all', phase: 'ferrite' })).to.equal('whole image · all directions · ferrite');
+  });
+
+  it('draws each row as its mean with the 95 % interval either side', () => {
+    const bars = interceptBars([row('band 1', 'along', across(5, 40, 3.5))]);
+
+    expect(bars).to.deep.equal([{ label: 'band 1 · along', mean: 40, low: 36.5, high: 43.5 }]);
+  });
+
+  it('draws a single field as its mean alone', () => {
+    const [bar] = interceptBars([row('band 1', 'across', across(1, 20, null))]);
+
+    expect(bar).to.include({ mean: 20, low: 20, high: 20 });
+  });
+
+  it('does not let an interval run below zero', () => {
+    const [bar] = interceptBars([row('band 3', 'across', across(2, 5, 12))]);
+
+    expect(bar!.low).to.equal(0);
+    expect(bar!.high).to.equal(17);
+  });
+
+  it('leaves out rows with no counted field', () => {
+    const bars = interceptBars([row('band 1', 'along', across(0, Number.NaN, null)), row('band 2', 'along', across(3, 30, 2))]);
+
+    expect(bars.map((b) => b.label)).to.deep.equal(['band 2 · along']);
+  });
+});
