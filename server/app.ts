@@ -9,6 +9,7 @@ import type { AppContext } from './app-context';
 import { authRouter } from './auth/auth.routes';
 import { calibrationRouter } from './calibration/calibration.routes';
 import { createPassport } from './auth/passport-setup';
+import { exportsRouter } from './exports/exports.routes';
 import { figuresRouter } from './figures/figures.routes';
 import { healthRouter } from './health/health.routes';
 import { imagesRouter } from './images/images.routes';
@@ -48,6 +49,7 @@ export function createApp(ctx: AppContext): Express {
   api.use('/projects/:projectId', measurementsRouter(ctx));
   api.use('/projects/:projectId', activityRouter(ctx));
   api.use('/projects/:projectId', figuresRouter(ctx));
+  api.use('/projects/:projectId', exportsRouter(ctx));
   api.use('/projects/:projectId', reviewsRouter(ctx));
   api.use('/projects/:projectId/images', imagesRouter(ctx));
   api.use('/admin', adminRouter(ctx));

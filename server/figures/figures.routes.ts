@@ -35,6 +35,10 @@ export function figuresRouter(ctx: AppContext): Router {
     await s.remove(currentUser(req), p(req, 'projectId'), p(req, 'figureId'));
     res.status(204).end();
   });
+  router.get('/figures/:figureId/measurements.csv', validate({ params: figureParams }), may('read'), async (req, res) => {
+    const { name, body } = await s.measurementsCsv(p(req, 'projectId'), p(req, 'figureId'));
+    res.type('text/csv; charset=utf-8').attachment(name).send(body);
+  });
   router.post('/figures/:figureId/export', validate({ params: figureParams }), may('read'), validate({ body: exportFigureBody }), async (req, res) => {
     const { record, file, name } = await s.export(currentUser(req), p(req, 'projectId'), p(req, 'figureId'), req.body as ExportFigureBody);
     res.setHeader('x-export-id', record.id);

@@ -7,7 +7,9 @@ import { recordActivity } from '../activity/record-activity';
 import { AnnotationClass } from '../annotations/annotation-class.entity';
 import type { AppContext } from '../app-context';
 import { AppError } from '../http/app-error';
+import { measurementsWithContext } from '../exports/measurements-of';
 import { Image } from '../images/image.entity';
+import { fieldsCsv } from '../measurements/measurements-csv';
 import { FigureExport } from './figure-export.entity';
 import { Figure } from './figure.entity';
 import { renderFigure } from './figure-renderer';
@@ -87,6 +89,14 @@ export class FiguresService {
     });
     const name = `${figure.title.replace(/[^\p{L}\p{N}._-]+/gu, '_').slice(0, 80)}_v${figure.version}_${body.widthMm}mm_${body.dpi}dpi.${ext}`;
     return { record, file, name };
+  }
+
+  /** The measurements behind a figure: every field measured on its panels' images, as CSV. */
+  async measurementsCsv(projectId: string, figureId: string): Promise<{ name: string; body: string }> {
+    const figure = await this.find(this.ds.manager, projectId, figureId);
+    const rows = await measurementsWithContext(this.ds.manager, projectId, [...new Set(figure.spec.panels.map((p) => p.imageId))]);
+    const name = `${figure.title.replace(/[^\p{L}\p{N}._-]+/gu, '_').slice(0, 80)}_measurements.csv`;
+    return { name, body: fieldsCsv((m) => m.image.specimen.code, rows) };
   }
 
   private async find(m: EntityManager, projectId: string, figureId: string): Promise<Figure> {

@@ -56,8 +56,12 @@ export function summaryCsv(s: SpecimenMeasurementSummary): string {
   return table(header, rows);
 }
 
-/** GET …/measurements.csv: every field, one row per direction for crossed lines, with how it was measured. */
-export function fieldsCsv(specimenCode: string, rows: readonly Measurement[]): string {
+/**
+ * GET …/measurements.csv: every field, one row per direction for crossed lines, with how it was measured.
+ * `specimenCode` names the specimen of every row, or of each row when the rows span specimens.
+ */
+export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), rows: readonly Measurement[]): string {
+  const specimenOf = typeof specimenCode === 'string' ? () => specimenCode : specimenCode;
   const header = [
     'Specimen', 'Image', 'Measurement id', 'Kind', 'Where', 'Direction', 'Pattern', 'Count type', 'Triple point value', 'Twins excluded',
     'Phase', 'Volume fraction V_V', 'Pixel size (µm/px)', 'Pixel size source', 'Stale', 'Line length (µm)', 'Count (P or N)',
@@ -67,7 +71,7 @@ export function fieldsCsv(specimenCode: string, rows: readonly Measurement[]): s
   const out: Cell[][] = [];
   for (const m of rows) {
     const r = m.result;
-    const common: Cell[] = [specimenCode, m.image.originalName, m.id, m.kind, m.whereLabel];
+    const common: Cell[] = [specimenOf(m), m.image.originalName, m.id, m.kind, m.whereLabel];
     const tail: Cell[] = [formatUmPerPx(m.umPerPx), m.pixelSizeSource, staleness(m.umPerPx, m.image.pixelSizeUm) !== null];
     const end: Cell[] = [m.author.displayName, m.computedAt.toISOString()];
     if (r.kind === 'intercept' && m.definition.kind === 'intercept') {

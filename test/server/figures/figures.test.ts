@@ -123,6 +123,16 @@ describe('figures: composition and export', function () {
     expect(JSON.parse(out.bytes.toString()).error.message).to.contain('Lower the width or the dpi');
   });
 
+  it('when the measurements behind a figure are asked for, then a CSV with units and the research caution comes back', async () => {
+    const figure = (await scene.client.post(path(), twoPanels())).body;
+    const res = await fetch(`${app.url}${path()}/${figure.id}/measurements.csv`, { headers: await reviewer.authHeaders() });
+    expect(res.status).to.equal(200);
+    expect(res.headers.get('content-type')).to.contain('text/csv');
+    const text = await res.text();
+    expect(text).to.contain('P_L or N_L (mm⁻¹)');
+    expect(text).to.contain('do not certify material');
+  });
+
   it('when two people edit the same figure, then the second gets 409', async () => {
     const figure = (await scene.client.post(path(), twoPanels())).body;
     expect((await scene.client.patch(`${path()}/${figure.id}`, { version: 1, title: 'first' })).status).to.equal(200);
