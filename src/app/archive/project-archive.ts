@@ -25,6 +25,10 @@ import { SampleList } from './sample-list';
         <mat-icon>view_quilt</mat-icon>
         Figures
       </a>
+      <a mat-stroked-button [href]="'/api/projects/' + project().id + '/export.zip'" download>
+        <mat-icon>archive</mat-icon>
+        Supplementary data (ZIP)
+      </a>
       </div>
     </div>
     <mat-tab-group mat-stretch-tabs="false" mat-align-tabs="start" animationDuration="0ms" aria-label="Archive">
