@@ -51,6 +51,13 @@ describe('client: shape edits, dragging a vertex', () => {
     expect(moved).to.deep.equal([[50, 40], [50, 200], [300, 200], [300, 40]]);
   });
 
+  it('keeps a rectangle when a corner is dragged past the opposite one', () => {
+    // Hand-computed: corner 2 taken from (300, 200) to (50, 50); (100, 100) holds still.
+    const moved = moveVertex('rectangle', rect, 2, [50, 50], image);
+
+    expect(moved).to.deep.equal([[100, 100], [50, 100], [50, 50], [100, 50]]);
+  });
+
   it('stops a dragged vertex at the image edge', () => {
     expect(moveVertex('polyline', [[10, 10], [20, 20]], 1, [2000, -30], image)).to.deep.equal([[10, 10], [1000, 0]]);
   });
