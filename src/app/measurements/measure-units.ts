@@ -10,7 +10,8 @@ export function formatUm(value: number | null | undefined, digits = 1): string {
 /** Line length: µm below 1 mm, mm above. Pure. */
 export function formatLength(um: number | null | undefined): string {
   if (um === null || um === undefined || !Number.isFinite(um)) return '—';
-  return um >= 1000 ? `${(um / 1000).toFixed(3)}${nbsp}mm` : `${um.toFixed(1)}${nbsp}µm`;
+  // Decide the unit on the number as it will be written (999.96 µm is "1.000 mm", not "1000.0 µm").
+  return Number(um.toFixed(1)) >= 1000 ? `${(um / 1000).toFixed(3)}${nbsp}mm` : `${um.toFixed(1)}${nbsp}µm`;
 }
 
 /** "45.2 mm⁻¹" for P_L, N_L. Pure. */
@@ -20,7 +21,10 @@ export function formatPerMm(value: number | null | undefined): string {
 
 /** ASTM grain size number to the nearest 0.1 (E112 reporting). Pure. */
 export function formatG(value: number | null | undefined): string {
-  return value === null || value === undefined || !Number.isFinite(value) ? '—' : value.toFixed(1);
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  const text = value.toFixed(1);
+  // A value that rounds to zero from below is written "0.0", not "-0.0".
+  return text === '-0.0' ? '0.0' : text;
 }
 
 /** A count of P or N: whole numbers plain, halves with one decimal. Pure. */

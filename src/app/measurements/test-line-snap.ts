@@ -55,8 +55,8 @@ export function markNear(p: Point, marks: readonly { x: number; y: number }[], t
 /** Line spacing in µm that lays about `count` lines across `acrossPx` with equal gaps (3 significant digits). Pure. */
 export function spacingToReach(count: number, acrossPx: number, umPerPx: number): number {
   const raw = (acrossPx / (count + 1)) * umPerPx;
-  const digits = Math.max(0, 2 - Math.floor(Math.log10(raw)));
-  return Number(raw.toFixed(Math.min(digits, 4)));
+  // Three significant digits at any size (1234.4 µm → 1230 µm).
+  return Number(raw.toPrecision(3));
 }
 
 /** A straight piece of a counted test line, named by the line it belongs to. */

@@ -57,7 +57,10 @@ export function insertMention(text: string, mention: MentionQuery, caret: number
 export function mentionedIds(text: string, chosen: readonly PersonRef[]): string[] {
   const ids: string[] = [];
   for (const person of chosen) {
-    if (!ids.includes(person.id) && text.includes(`@${person.name}`)) ids.push(person.id);
+    // The name must end where the mention ends, so "@Ana" does not match inside "@Anabela Sousa".
+    const escaped = person.name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    const mention = new RegExp(`@${escaped}(?![\\p{L}\\p{N}_-])`, 'u');
+    if (!ids.includes(person.id) && mention.test(text)) ids.push(person.id);
   }
   return ids;
 }

@@ -29,7 +29,7 @@ describe('client: measure units, lengths', () => {
   });
 
   // Skipped: formatLength picks the unit before rounding, so 999.96 µm reads "1000.0 µm" (bug reported).
-  it.skip('switches to mm for a length that rounds up to 1 mm', () => {
+  it('switches to mm for a length that rounds up to 1 mm', () => {
     expect(formatLength(999.96)).to.equal(`1.000${NB}mm`);
   });
 
@@ -61,7 +61,7 @@ describe('client: measure units, counts per length and grain size', () => {
   });
 
   // Skipped: formatG uses toFixed, so a G of −0.04 reads "-0.0" (bug reported).
-  it.skip('never writes a minus zero for a grain size that rounds to 0', () => {
+  it('never writes a minus zero for a grain size that rounds to 0', () => {
     expect(formatG(-0.04)).to.equal('0.0');
   });
 

@@ -128,7 +128,7 @@ describe('client: test-line snapping, spacing for "about N lines"', () => {
   });
 
   // Skipped: spacingToReach floors the decimals at 0, so 1234.4 µm stays "1234" (4 digits) (bug reported).
-  it.skip('keeps spacings of a millimetre and more to three significant digits', () => {
+  it('keeps spacings of a millimetre and more to three significant digits', () => {
     // Hand-computed: 10000 px / 5 × 0.6172 µm/px = 1234.4 µm → 1230.
     expect(spacingToReach(4, 10_000, 0.6172)).to.equal(1230);
   });
