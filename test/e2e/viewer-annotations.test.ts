@@ -142,6 +142,11 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     const geojson = JSON.parse(await readFile(file, 'utf8'));
     expect(geojson.type).to.equal('FeatureCollection');
     expect(geojson.features).to.have.length(5);
+    // Image pixel coordinates as stored (RFC 7946 closes a polygon's ring by repeating its first position).
+    const lines = geojson.features.filter((f: { geometry: { type: string } }) => f.geometry.type === 'LineString');
+    expect(lines.map((f: { geometry: { coordinates: Pt[] } }) => f.geometry.coordinates)).to.deep.equal([source[0]!.points, source[1]!.points]);
+    const rings = geojson.features.filter((f: { geometry: { type: string } }) => f.geometry.type === 'Polygon');
+    expect(rings.map((f: { geometry: { coordinates: Pt[][] } }) => f.geometry.coordinates[0])).to.deep.equal(source.slice(2).map((s) => [...s.points, s.points[0]]));
 
     await page.goto(app!.url(viewerPath(scene.project.id, importTargetId)));
     await viewerCanvas(page).waitFor();
