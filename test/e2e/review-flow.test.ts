@@ -40,7 +40,7 @@ describe('e2e: review flow', function () {
     return app;
   }
 
-  it('when a researcher submits, the reviewer follows the mailed link, pins two threads and asks for changes, the researcher replies, resolves and resubmits, then the reviewer clears and the researcher exports a two-panel TIFF at the chosen size and dpi', async () => {
+  it('when a researcher submits, the reviewer follows the mailed link, pins two threads, is refused clearing while they are open and asks for changes, the researcher replies, resolves and resubmits, then the reviewer clears and the researcher exports a two-panel TIFF at the chosen size and dpi', async () => {
     const scene = await reviewScene();
     const [first, second] = scene.images;
     const researcher = await signedInApp(scene.researcher.email);
@@ -70,7 +70,12 @@ describe('e2e: review flow', function () {
     await expectText(threadAt(v, 120, 80), 'Crack at the bond interface?');
     await pinThread(v, 400, 300, 'Scale bar is missing in this corner.');
     await expectText(threadAt(v, 400, 300), 'Scale bar is missing');
-    await expectText(reviewCard(v), '2 open threads');
+    await expectText(reviewCard(v), '2 open threads on this image; resolve them before clearing.');
+    // Clearing is refused while threads are open; the image stays with the reviewers.
+    await v.getByRole('button', { name: 'Clear for publication' }).click();
+    await expectText(reviewCard(v).getByRole('alert'), '2 comment threads are still open on this image; resolve them before clearing.');
+    await expectText(reviewCard(v), 'With reviewers');
+    await expectCount(reviewCard(v).locator('ul.snapshots li'), 0);
     await v.getByRole('button', { name: 'Request changes' }).click();
     await expectText(reviewCard(v).getByRole('status'), 'Done: now needs changes.');
 
