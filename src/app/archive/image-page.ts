@@ -1,4 +1,5 @@
 import { ActivityTimeline } from '../activity/activity-timeline';
+import { CalibrationPresets } from './calibration-presets';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, viewChild } from '@angular/core';
 import { MatAnchor, MatButton } from '@angular/material/button';
@@ -25,7 +26,7 @@ const POLL_MS = 2500;
 /** One micrograph: its preview, where it is filed, how it was made, and its scale. */
 @Component({
   selector: 'ef-image-page',
-  imports: [ActivityTimeline, Breadcrumbs, DatePipe, MatAnchor, MatButton, MatIcon, MatProgressBar, PixelSizePanel, ReviewPanel, RouterLink, ThreadList],
+  imports: [CalibrationPresets, ActivityTimeline, Breadcrumbs, DatePipe, MatAnchor, MatButton, MatIcon, MatProgressBar, PixelSizePanel, ReviewPanel, RouterLink, ThreadList],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './image-page.html',
   styleUrl: './image-page.scss',

@@ -1,3 +1,4 @@
+import { CalibrationPresets } from './calibration-presets';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal } from '@angular/core';
 import { MatButton } from '@angular/material/button';
@@ -49,7 +50,7 @@ const POLL_MS = 3000;
 /** Every micrograph of a project, filtered, sorted and paged by the server, as a grid or a table. */
 @Component({
   selector: 'ef-image-search',
-  imports: [
+  imports: [CalibrationPresets, 
     Breadcrumbs,
     DatePipe,
     ImageFilters,
@@ -125,6 +126,9 @@ export default class ImageSearch {
   protected readonly total = computed(() => this.images.value()?.total ?? 0);
   protected readonly isEmpty = computed(() => !this.images.loading() && !this.images.error() && this.total() === 0);
   protected readonly canUpload = computed(() => this.project.value()?.allowed.includes('upload') ?? false);
+  protected readonly canEditMetadata = computed(() => this.project.value()?.allowed.includes('editMetadata') ?? false);
+  /** The images on this page of results: a preset applies to exactly what the person sees. */
+  protected readonly listedIds = computed(() => (this.images.value()?.items ?? []).map((i) => i.id));
   protected readonly crumbs = computed<Crumb[]>(() => [
     { label: 'Projects', link: ['/projects'] },
     { label: this.project.value()?.code ?? 'Project', link: ['/projects', this.projectId()] },
