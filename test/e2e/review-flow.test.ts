@@ -57,7 +57,7 @@ describe('e2e: review flow', function () {
     await expectText(reviewCard(r).getByRole('status'), 'Done: now with reviewers.');
 
     // The reviewer is told by mail and opens the image from it.
-    const requested = await waitForMail(scene.reviewer.email, new RegExp(`^\\[${scene.projectCode}\\] .* submitted ${first.name} for review$`), 15_000);
+    const requested = await waitForMail(scene.reviewer.email, new RegExp(`^\\[${scene.projectCode}\\] .* submitted ${first.name} for review$`), 60_000);
     const link = openLinkIn(requested);
     expect(link).to.equal(`${runningServer().ctx.config.publicUrl}${imagePath(scene)}`);
     await v.goto(link);
@@ -80,7 +80,7 @@ describe('e2e: review flow', function () {
     await expectText(reviewCard(v).getByRole('status'), 'Done: now needs changes.');
 
     // The researcher answers one thread, resolves both and submits again.
-    await waitForMail(scene.researcher.email, new RegExp(`asked for changes to ${first.name}$`), 15_000);
+    await waitForMail(scene.researcher.email, new RegExp(`asked for changes to ${first.name}$`), 60_000);
     await r.reload();
     await expectText(reviewCard(r), 'Needs changes');
     const cracked = threadAt(r, 120, 80);
@@ -96,7 +96,7 @@ describe('e2e: review flow', function () {
     await expectText(reviewCard(r).getByRole('status'), 'Done: now with reviewers.');
 
     // The reviewer follows the reply's link to its thread, then clears the image.
-    const replied = await waitForMail(scene.reviewer.email, new RegExp(`replied in a thread on ${first.name}$`), 15_000);
+    const replied = await waitForMail(scene.reviewer.email, new RegExp(`replied in a thread on ${first.name}$`), 60_000);
     const threadLink = openLinkIn(replied);
     expect(threadLink).to.match(new RegExp(`${imagePath(scene)}\\?thread=[0-9a-f-]{36}$`));
     await v.goto(threadLink);
