@@ -23,7 +23,7 @@ export async function startNotificationWorker(deps: NotificationDeps, jobs: JobQ
   const stranded = await requeueStranded(deps);
   if (stranded > 0) deps.logger.info({ count: stranded }, 'notifications queued again after their mail job was lost');
 
-  const mailWorker = await boss.work<MailJobData>(MAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+  const mailWorker: string = await boss.work<MailJobData>(MAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
     if (!job) return;
     try {
       await deliverMail(deps, job.data);
@@ -31,6 +31,10 @@ export async function startNotificationWorker(deps: NotificationDeps, jobs: JobQ
       // Logs the failed attempt (mail server down, address refused) and rethrows so pg-boss retries the job.
       deps.logger.warn({ err, jobId: job.id }, 'notification mail not sent; it will be retried');
       throw err;
+    } finally {
+      // pg-boss waits a polling interval after every batch; ask for the next job at once, so a backlog
+      // of mail drains at the speed of the mail server rather than one message a second.
+      boss.notifyWorker(mailWorker);
     }
   });
   await boss.work(DIGEST_QUEUE, { batchSize: 1, pollingIntervalSeconds: 5 }, async () => {
