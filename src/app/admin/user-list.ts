@@ -1,6 +1,5 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, linkedSignal, signal } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButton, MatIconButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -24,18 +23,16 @@ import {
   MatRowDef,
   MatTable,
 } from '@angular/material/table';
-import { debounceTime, distinctUntilChanged, map } from 'rxjs';
 import type { ListUsersQuery, UpdateUserBody, UserSummary } from '../../../shared/admin';
 import { apiErrorMessage, type FailedResponse } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
+import { typedSearch } from '../core/typed-search';
 import { SessionStore } from '../core/session-store';
 import { AdminApi } from './admin-api';
 import { userChanges, type UserChange } from './user-changes';
 
 type SortField = ListUsersQuery['sort'];
-
-const FILTER_DEBOUNCE_MS = 300;
 
 @Component({
   selector: 'ef-user-list',
@@ -83,14 +80,7 @@ export default class UserList {
   protected readonly filter = new FormControl('', { nonNullable: true });
   protected readonly sort = signal<{ active: SortField; direction: 'asc' | 'desc' }>({ active: 'email', direction: 'asc' });
   protected readonly pageSize = signal(20);
-  private readonly q = toSignal(
-    this.filter.valueChanges.pipe(
-      map((text) => text.trim()),
-      debounceTime(FILTER_DEBOUNCE_MS),
-      distinctUntilChanged(),
-    ),
-    { initialValue: '' },
-  );
+  private readonly q = typedSearch(this.filter.valueChanges);
   protected readonly pageIndex = linkedSignal({
     source: () => ({ q: this.q(), sort: this.sort() }),
     computation: () => 0,

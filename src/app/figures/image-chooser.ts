@@ -3,11 +3,10 @@ import { toObservable } from '@angular/core/rxjs-interop';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
-import { debounceTime, distinctUntilChanged } from 'rxjs';
-import { toSignal } from '@angular/core/rxjs-interop';
 import type { ImageSummary } from '../../../shared/images';
 import { ImageApi } from '../archive/image-api';
 import { remote } from '../core/remote';
+import { typedSearch } from '../core/typed-search';
 
 /** Ready images of the project, searched by name, as thumbnails to pick one from. */
 @Component({
@@ -135,9 +134,9 @@ export class ImageChooser {
   readonly picked = output<ImageSummary>();
 
   protected readonly text = signal('');
-  protected readonly query = toSignal(toObservable(this.text).pipe(debounceTime(300), distinctUntilChanged()), { initialValue: '' });
+  protected readonly query = typedSearch(toObservable(this.text));
   protected readonly images = remote(
-    () => ({ projectId: this.projectId(), q: this.query().trim() }),
+    () => ({ projectId: this.projectId(), q: this.query() }),
     ({ projectId, q }) => this.api.search(projectId, { page: 0, pageSize: 24, sort: 'uploadedAt', dir: 'desc', q: q || undefined, state: ['ready'] }),
   );
 

@@ -1,6 +1,5 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, linkedSignal, signal } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -24,17 +23,15 @@ import {
   MatTable,
 } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { debounceTime, distinctUntilChanged, map } from 'rxjs';
 import type { ListProjectsQuery, ProjectDetail } from '../../../shared/projects';
 import { remote } from '../core/remote';
+import { typedSearch } from '../core/typed-search';
 import { ProjectApi } from './project-api';
 
 type StatusFilter = ListProjectsQuery['status'];
 type SortField = ListProjectsQuery['sort'];
 
 /** Typing pauses this long before the list asks the server again. */
-const FILTER_DEBOUNCE_MS = 300;
-
 @Component({
   selector: 'ef-project-list',
   imports: [
@@ -79,14 +76,7 @@ export default class ProjectList {
   protected readonly status = signal<StatusFilter>('active');
   protected readonly sort = signal<{ active: SortField; direction: 'asc' | 'desc' }>({ active: 'name', direction: 'asc' });
   protected readonly pageSize = signal(20);
-  private readonly q = toSignal(
-    this.filter.valueChanges.pipe(
-      map((text) => text.trim()),
-      debounceTime(FILTER_DEBOUNCE_MS),
-      distinctUntilChanged(),
-    ),
-    { initialValue: '' },
-  );
+  private readonly q = typedSearch(this.filter.valueChanges);
   /** Back to the first page whenever the filter or the order changes. */
   protected readonly pageIndex = linkedSignal({
     source: () => ({ q: this.q(), status: this.status(), sort: this.sort() }),
