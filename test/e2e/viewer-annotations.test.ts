@@ -179,6 +179,45 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     expectNoForeignRequests(app!);
   });
 
+  it('when a researcher pulls a new vertex out of an outline edge and Alt+clicks another vertex away, then the stored outline has the new vertex and not the removed one', async () => {
+    const { page } = app!;
+    expect(await storedShapes(refusedId), 'the image the previous test left empty').to.deep.equal([]);
+    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
+    const at = await openAtActualPixels(app!, scene.project.id, refusedId, { width: W, height: H });
+    await chooseOption(page, page.getByRole('combobox', { name: 'Class for new shapes' }), 'Oxide particle');
+    await tool(page, 'Polygon tool').click();
+    const square: Pt[] = [[900, 700], [1100, 700], [1100, 900], [900, 900]];
+    for (const [x, y] of square) await clickAt(page, at(x, y));
+    await clickAt(page, at(900, 700));
+    await expectValue('stored outlines', async () => (await storedShapes(refusedId)).length, 1, 15_000);
+
+    await tool(page, 'Select tool').click();
+    await clickAt(page, at(1000, 780));
+    // The round handle in the middle of the top edge, pulled up by 50 px.
+    await dragFrom(page, at(1000, 700), at(1000, 650));
+    await expectValue('vertices after adding one', async () => (await storedShapes(refusedId))[0]!.points.length, 5, 15_000);
+    expectPointsNear('outline with the new vertex', (await storedShapes(refusedId))[0]!.points, [[900, 700], [1000, 650], [1100, 700], [1100, 900], [900, 900]], CLICK_TOLERANCE_PX);
+
+    await page.keyboard.down('Alt');
+    await clickAt(page, at(1100, 900));
+    await page.keyboard.up('Alt');
+    await expectValue('vertices after removing one', async () => (await storedShapes(refusedId))[0]!.points.length, 4, 15_000);
+    expectPointsNear('outline without the removed vertex', (await storedShapes(refusedId))[0]!.points, [[900, 700], [1000, 650], [1100, 700], [900, 900]], CLICK_TOLERANCE_PX);
+
+    // A triangle cannot lose a vertex: the reason shows and the stored outline stays as it was.
+    await page.keyboard.down('Alt');
+    await clickAt(page, at(1000, 650));
+    await page.keyboard.up('Alt');
+    await expectValue('vertices after removing another', async () => (await storedShapes(refusedId))[0]!.points.length, 3, 15_000);
+    await page.keyboard.down('Alt');
+    await clickAt(page, at(900, 900));
+    await page.keyboard.up('Alt');
+    await expectText(page.getByRole('alert'), 'An outline needs at least 3 vertices');
+    await page.waitForTimeout(500);
+    expect((await storedShapes(refusedId))[0]!.points).to.have.length(3);
+    expectNoForeignRequests(app!);
+  });
+
   it('when a researcher drags the calibrate tool along 100 µm of a stage micrometer and enters the length, then the stored pixel size is 0.25 µm', async () => {
     const { page } = app!;
     await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);

@@ -1,5 +1,6 @@
 import type Konva from 'konva';
 import type { AnnotationKind, Coordinates } from '../../../shared/annotations/annotations';
+import { edgeMidpoints } from './shape-edits';
 import { drawShape } from './shape-layer';
 
 type KonvaModule = typeof Konva;
@@ -15,6 +16,7 @@ export interface OverlayShape {
 }
 
 const HANDLE_PX = 7;
+const MIDPOINT_RADIUS_PX = 3.5;
 const CALIBRATION_COLOUR = '#ffd23f';
 
 /**
@@ -62,7 +64,7 @@ export class OverlayLayer {
     if (this.selection) {
       const s = this.selection;
       drawShape(c, pr, this.scale, s.kind, s.points, s.label, s.colour, { label: s.measurement, pending: false, width: 3 });
-      if (this.handles && s.kind !== 'point' && s.kind !== 'text') this.drawHandles(c, pr, s.points);
+      if (this.handles && s.kind !== 'point' && s.kind !== 'text') this.drawHandles(c, pr, s.kind, s.points);
     }
     if (this.calibrationLine && this.calibrationLine.length === 2) {
       drawShape(c, pr, this.scale, 'ruler', this.calibrationLine, '', CALIBRATION_COLOUR, { label: '', pending: false, width: 2 });
@@ -75,17 +77,28 @@ export class OverlayLayer {
     }
   }
 
-  /** Square handles, fixed in screen size, on every vertex. */
-  private drawHandles(c: CanvasRenderingContext2D, pr: number, points: Coordinates): void {
+  /**
+   * Square handles, fixed in screen size, on every vertex; on lines and outlines also small round
+   * ones in the middle of each edge, to pull a new vertex out of.
+   */
+  private drawHandles(c: CanvasRenderingContext2D, pr: number, kind: AnnotationKind, points: Coordinates): void {
     const m = c.getTransform();
+    const toScreen = ([x, y]: readonly [number, number]) => [(m.a * x + m.c * y + m.e) / pr, (m.b * x + m.d * y + m.f) / pr] as const;
     c.save();
     c.setTransform(pr, 0, 0, pr, 0, 0);
-    for (const [x, y] of points) {
-      const sx = (m.a * x + m.c * y + m.e) / pr;
-      const sy = (m.b * x + m.d * y + m.f) / pr;
-      c.fillStyle = '#ffffff';
-      c.strokeStyle = '#101418';
-      c.lineWidth = 1.5;
+    c.strokeStyle = '#101418';
+    c.lineWidth = 1.5;
+    c.fillStyle = 'rgba(255, 255, 255, 0.7)';
+    for (const mid of edgeMidpoints(kind, points)) {
+      const [sx, sy] = toScreen(mid);
+      c.beginPath();
+      c.arc(sx, sy, MIDPOINT_RADIUS_PX, 0, Math.PI * 2);
+      c.fill();
+      c.stroke();
+    }
+    c.fillStyle = '#ffffff';
+    for (const p of points) {
+      const [sx, sy] = toScreen(p);
       c.fillRect(sx - HANDLE_PX / 2, sy - HANDLE_PX / 2, HANDLE_PX, HANDLE_PX);
       c.strokeRect(sx - HANDLE_PX / 2, sy - HANDLE_PX / 2, HANDLE_PX, HANDLE_PX);
     }

@@ -93,6 +93,8 @@ export const SHORTCUT_HELP: { keys: string; what: string }[] = [
   { keys: 'Backspace', what: 'Take back the last point while drawing' },
   { keys: 'Esc', what: 'Cancel the shape being drawn; clear the selection' },
   { keys: 'Del', what: 'Delete the selected shape' },
+  { keys: 'Drag a round edge handle', what: 'Add a vertex to the selected line or outline' },
+  { keys: 'Alt+click a vertex', what: 'Remove that vertex from the selected line or outline' },
   { keys: 'Ctrl+Z', what: 'Undo' },
   { keys: 'Ctrl+Shift+Z or Ctrl+Y', what: 'Redo' },
   { keys: '+ / −, wheel, pinch', what: 'Zoom in / out around the pointer' },
@@ -104,7 +106,7 @@ export const SHORTCUT_HELP: { keys: string; what: string }[] = [
 
 /** Hints beside the class picker: how the current tool is used. */
 export const TOOL_HINTS: Record<ViewerTool, string> = {
-  select: 'Click a shape to select it; drag it or its handles to change it. Drag elsewhere to pan.',
+  select: 'Click a shape to select it; drag it or its corner handles to change it, drag a round edge handle to add a vertex, Alt+click a vertex to remove it. Drag elsewhere to pan.',
   polyline: 'Click to place points; double-click or press Enter to finish.',
   polygon: 'Click to place corners; click the first one or press Enter to close.',
   freehand: 'Drag around the feature; release to close the outline.',

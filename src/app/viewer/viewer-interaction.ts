@@ -3,7 +3,7 @@ import type { Point } from '../../../shared/annotations/geometry';
 import { panBy, screenToImage, zoomAround, type ImageSize, type Viewport } from '../../../shared/viewer/viewport';
 import { nearestVertex, topmostHit } from './hit-test';
 import { CLICK_SLOP_PX, DRAG_TOOLS, ShapeDraft, type DrawTool, type FinishedDraft } from './shape-draft';
-import { moveVertex, samePoints, translateShape } from './shape-edits';
+import { canReshape, edgeMidpoints, insertVertex, moveVertex, removeVertex, samePoints, translateShape } from './shape-edits';
 import type { ViewerTool } from './shortcuts';
 import { keepInView, pinch, wheelZoomFactor } from './view-maths';
 import type { ViewShape } from './view-shapes';
@@ -26,6 +26,8 @@ export interface InteractionHost {
   /** A selected shape is being dragged: show these points instead (null when the drag ends). */
   editPreview(key: string, points: Coordinates | null): void;
   commitEdit(key: string, points: Coordinates): void;
+  /** An edit the select tool cannot make (for example removing an outline's third vertex), with the reason. */
+  editRefused?(reason: string): void;
   cursorMoved(p: Point | null): void;
 }
 
@@ -35,7 +37,8 @@ type Mode =
   /** A press of a click tool, or on empty image with the select tool: a click unless it moves, then a pan. */
   | { type: 'press'; last: { x: number; y: number }; clears: boolean }
   | { type: 'draw' }
-  | { type: 'vertex'; key: string; index: number; original: Coordinates; kind: ViewShape['kind']; points: Coordinates }
+  /** Dragging a vertex; `inserted` when it was just pulled out of an edge (a click alone keeps it). */
+  | { type: 'vertex'; key: string; index: number; original: Coordinates; start: Coordinates; kind: ViewShape['kind']; points: Coordinates; inserted: boolean }
   | { type: 'move'; key: string; from: Point; original: Coordinates; points: Coordinates }
   | { type: 'pinch'; touches: [{ x: number; y: number }, { x: number; y: number }] };
 
@@ -143,7 +146,7 @@ export class ViewerInteraction {
       return;
     }
     if (e.button !== 0) return;
-    if (tool === 'select') return this.pressSelect(p, s);
+    if (tool === 'select') return this.pressSelect(p, s, e.altKey);
     const draft = this.draftFor(tool);
     if (DRAG_TOOLS.has(tool)) {
       draft.press(p);
@@ -154,19 +157,16 @@ export class ViewerInteraction {
     }
   }
 
-  private pressSelect(p: Point, s: { x: number; y: number }): void {
+  /**
+   * The select tool pressed: on a handle of the selected shape it reshapes (drag a vertex, pull a
+   * new one out of an edge's middle, Alt+click a vertex to remove it), on a shape it selects and
+   * moves, elsewhere it clears the selection or pans.
+   */
+  private pressSelect(p: Point, s: { x: number; y: number }, alt: boolean): void {
     const selected = this.host.selected();
     const shapes = this.host.shapes();
-    if (this.host.canEdit() && selected) {
-      const shape = shapes.find((x) => x.key === selected);
-      if (shape) {
-        const index = shape.kind === 'point' || shape.kind === 'text' ? -1 : nearestVertex(shape.points, p, this.unit);
-        if (index >= 0) {
-          this.mode = { type: 'vertex', key: shape.key, index, original: shape.points, kind: shape.kind, points: shape.points };
-          return;
-        }
-      }
-    }
+    const current = selected && this.host.canEdit() ? shapes.find((x) => x.key === selected) : undefined;
+    if (current && current.kind !== 'point' && current.kind !== 'text' && this.pressHandle(current, p, alt)) return;
     const hit = topmostHit(shapes, p, this.unit);
     if (!hit) {
       this.mode = { type: 'press', last: s, clears: true };
@@ -175,6 +175,29 @@ export class ViewerInteraction {
     if (hit !== selected) this.host.select(hit);
     const shape = shapes.find((x) => x.key === hit)!;
     this.mode = this.host.canEdit() ? { type: 'move', key: hit, from: p, original: shape.points, points: shape.points } : { type: 'press', last: s, clears: false };
+  }
+
+  /** Whether the press landed on one of the selected shape's handles (and was handled). */
+  private pressHandle(shape: ViewShape, p: Point, alt: boolean): boolean {
+    const index = nearestVertex(shape.points, p, this.unit);
+    if (index >= 0 && alt && canReshape(shape.kind)) {
+      const result = removeVertex(shape.kind, shape.points, index);
+      if (typeof result === 'string') this.host.editRefused?.(result);
+      else this.host.commitEdit(shape.key, result);
+      this.mode = { type: 'idle' };
+      this.down = null;
+      return true;
+    }
+    if (index >= 0) {
+      this.mode = { type: 'vertex', key: shape.key, index, original: shape.points, start: shape.points, kind: shape.kind, points: shape.points, inserted: false };
+      return true;
+    }
+    const edge = nearestVertex(edgeMidpoints(shape.kind, shape.points), p, this.unit);
+    if (edge < 0) return false;
+    const start = insertVertex(shape.points, edge, p, this.host.image);
+    this.mode = { type: 'vertex', key: shape.key, index: edge + 1, original: shape.points, start, kind: shape.kind, points: start, inserted: true };
+    this.host.editPreview(shape.key, start);
+    return true;
   }
 
   private pointerMove(e: PointerEvent): void {
@@ -215,7 +238,7 @@ export class ViewerInteraction {
         this.host.draftChanged(this.draft);
         return;
       case 'vertex':
-        m.points = moveVertex(m.kind, m.original, m.index, p, this.host.image);
+        m.points = moveVertex(m.kind, m.start, m.index, p, this.host.image);
         this.host.editPreview(m.key, m.points);
         return;
       case 'move':
@@ -256,10 +279,12 @@ export class ViewerInteraction {
         return;
       }
       case 'vertex':
-      case 'move':
+      case 'move': {
         this.host.editPreview(m.key, null);
-        if (this.moved && !samePoints(m.points, m.original)) this.host.commitEdit(m.key, m.points);
+        const changed = (this.moved || (m.type === 'vertex' && m.inserted)) && !samePoints(m.points, m.original);
+        if (changed) this.host.commitEdit(m.key, m.points);
         return;
+      }
     }
   }
 

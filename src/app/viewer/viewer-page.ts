@@ -515,6 +515,7 @@ export default class ViewerPage implements OnDestroy {
       finished: (result) => this.finished(result),
       editPreview: (key, points) => this.editPreview(key, points),
       commitEdit: (key, points) => this.commitEdit(key, points),
+      editRefused: (reason) => this.problem.set(reason),
       cursorMoved: (p) => this.cursor.set(p),
     });
     this.resizeObserver = new ResizeObserver(() => {

@@ -1,6 +1,6 @@
 import { expect } from 'chai';
 import type { Coordinates } from '../../../../shared/annotations/annotations';
-import { clampToImage, moveVertex, samePoints, translateShape } from '../../../../src/app/viewer/shape-edits';
+import { canReshape, clampToImage, edgeMidpoints, insertVertex, moveVertex, removeVertex, samePoints, translateShape } from '../../../../src/app/viewer/shape-edits';
 
 const image = { width: 1000, height: 800 };
 const rect: Coordinates = [[100, 100], [300, 100], [300, 200], [100, 200]];
@@ -68,5 +68,43 @@ describe('client: shape edits, comparing shapes', () => {
     expect(samePoints(rect, structuredClone(rect))).to.equal(true);
     expect(samePoints(rect, translateShape(rect, 1, 0, image))).to.equal(false);
     expect(samePoints(rect, rect.slice(0, 3))).to.equal(false);
+  });
+});
+
+describe('client: shape edits, adding and removing vertices', () => {
+  const tri: Coordinates = [[0, 0], [100, 0], [50, 80]];
+  const line: Coordinates = [[10, 10], [110, 10], [110, 60]];
+
+  it('offers the middle of every edge, the closing edge of an outline included', () => {
+    // Hand-computed midpoints: (0+100)/2, (100+50)/2 and (50+0)/2 along x; 0, 40, 40 along y.
+    expect(edgeMidpoints('polygon', tri)).to.deep.equal([[50, 0], [75, 40], [25, 40]]);
+    // An open line has one edge fewer.
+    expect(edgeMidpoints('polyline', line)).to.deep.equal([[60, 10], [110, 35]]);
+  });
+
+  it('offers no edge handles on shapes with a fixed number of points', () => {
+    expect(edgeMidpoints('rectangle', rect)).to.deep.equal([]);
+    expect(edgeMidpoints('ruler', [[0, 0], [10, 0]])).to.deep.equal([]);
+    expect(canReshape('angle')).to.equal(false);
+    expect(canReshape('polyline')).to.equal(true);
+  });
+
+  it('inserts a new vertex after the edge it was pulled from, kept on the image', () => {
+    expect(insertVertex(tri, 1, [80, 45], image)).to.deep.equal([[0, 0], [100, 0], [80, 45], [50, 80]]);
+    expect(insertVertex(tri, 2, [-10, 40], image)).to.deep.equal([[0, 0], [100, 0], [50, 80], [0, 40]]);
+    expect(tri).to.have.length(3);
+  });
+
+  it('removes a vertex while enough remain', () => {
+    const square: Coordinates = [[0, 0], [10, 0], [10, 10], [0, 10]];
+
+    expect(removeVertex('polygon', square, 1)).to.deep.equal([[0, 0], [10, 10], [0, 10]]);
+    expect(removeVertex('polyline', line, 0)).to.deep.equal([[110, 10], [110, 60]]);
+  });
+
+  it('refuses to take an outline below three vertices or a line below two, saying what to do instead', () => {
+    expect(removeVertex('polygon', tri, 0)).to.be.a('string').and.match(/at least 3 vertices/);
+    expect(removeVertex('polyline', [[0, 0], [5, 5]], 0)).to.be.a('string').and.match(/at least 2 vertices/);
+    expect(removeVertex('rectangle', rect, 0)).to.be.a('string').and.match(/fixed number of points/);
   });
 });
