@@ -3,6 +3,7 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { activityRouter } from './activity/activity.routes';
 import { adminRouter } from './admin/admin.routes';
+import { alignmentsRouter } from './alignments/alignments.routes';
 import { annotationsRouter } from './annotations/annotations.routes';
 import { archiveRouter } from './archive/archive.routes';
 import type { AppContext } from './app-context';
@@ -46,6 +47,7 @@ export function createApp(ctx: AppContext): Express {
   // Before the images router, whose '/:imageId' routes would otherwise see '/:imageId/annotations' first.
   api.use('/projects/:projectId', annotationsRouter(ctx));
   api.use('/projects/:projectId', calibrationRouter(ctx));
+  api.use('/projects/:projectId', alignmentsRouter(ctx));
   api.use('/projects/:projectId', measurementsRouter(ctx));
   api.use('/projects/:projectId', activityRouter(ctx));
   api.use('/projects/:projectId', figuresRouter(ctx));

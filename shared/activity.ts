@@ -19,6 +19,8 @@ export const ACTIVITY_ACTIONS = [
   'annotation.updated',
   'annotation.deleted',
   'annotations.imported',
+  'alignment.saved',
+  'alignment.removed',
   'measurement.created',
   'measurement.updated',
   'measurement.deleted',

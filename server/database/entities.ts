@@ -1,4 +1,5 @@
 import { ActivityEvent } from '../activity/activity-event.entity';
+import { ImageAlignment } from '../alignments/image-alignment.entity';
 import { AnnotationClass } from '../annotations/annotation-class.entity';
 import { Annotation } from '../annotations/annotation.entity';
 import { Material } from '../archive/material.entity';
@@ -42,6 +43,7 @@ export const ENTITIES = [
   Specimen,
   SpecimenLocation,
   Image,
+  ImageAlignment,
   AnnotationClass,
   Annotation,
   CalibrationPreset,

@@ -15,6 +15,8 @@ export function activityIcon(action: ActivityAction | string): string {
     case 'annotation':
     case 'annotations':
       return 'draw';
+    case 'alignment':
+      return 'layers';
     case 'measurement':
       return 'analytics';
     case 'review':
