@@ -64,7 +64,7 @@ function straightPieces(line: TestLine): [Point, Point][] {
 }
 
 /** An inscribed regular n-gon is shorter than its circle by sin(π/n)/(π/n); arcs are scaled back by this factor. */
-const ARC_PER_CHORD = Math.PI / CIRCLE_SIDES / Math.sin(Math.PI / CIRCLE_SIDES);
+export const ARC_PER_CHORD = Math.PI / CIRCLE_SIDES / Math.sin(Math.PI / CIRCLE_SIDES);
 
 /** The parts of one straight piece inside the image and the frame's region, band and sub-band. */
 function clipPiece(a: Point, b: Point, frame: FieldFrame, band: LayerBand | null): [Point, Point][] {
@@ -114,6 +114,22 @@ export function chainLength(chain: readonly Point[]): number {
   let sum = 0;
   for (let i = 1; i < chain.length; i++) sum += Math.hypot(chain[i]![0] - chain[i - 1]![0], chain[i]![1] - chain[i - 1]![1]);
   return sum;
+}
+
+/** Shortest distance (px) from a point to the nearest bond interface of the frame. */
+export function distanceToInterfaces(p: Point, frame: Pick<FieldFrame, 'interfaces'>): number {
+  return frame.interfaces.reduce((best, l) => Math.min(best, distanceToPolyline(p, l)), Infinity);
+}
+
+/** Length (px) of the counted part of a path lying loPx–hiPx from the nearest bond interface; arcs scaled like the whole. */
+export function lengthInDistanceRange(path: TestPath, frame: Pick<FieldFrame, 'interfaces'>, loPx: number, hiPx: number): number {
+  let sum = 0;
+  for (const chain of path.pieces) {
+    for (let i = 1; i < chain.length; i++) {
+      for (const [s, e] of clipSegmentByDistance(chain[i - 1]!, chain[i]!, frame.interfaces, loPx, hiPx)) sum += Math.hypot(e[0] - s[0], e[1] - s[1]);
+    }
+  }
+  return path.family === 'circle' ? sum * ARC_PER_CHORD : sum;
 }
 
 /** Shortest distance from a point to the counted part of a test line (Infinity when nothing of it is counted). */

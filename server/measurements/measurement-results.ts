@@ -1,9 +1,18 @@
 import { CIRCLE_RULES, LINE_RULES, fieldResult, grainSizeFromIntercept, isoIndexFromAstm, markValue, phaseIntercept, type CountRules } from '../../shared/measurements/e112';
 import { layerThickness } from '../../shared/measurements/layers';
-import type { Direction, InterceptFigures, InterceptResult, PointCountResult, TestPath, ThicknessResult } from '../../shared/measurements/measurement-records';
+import type { DistanceBin, Direction, InterceptFigures, InterceptResult, PointCountResult, PointCountSource, TestPath, ThicknessResult } from '../../shared/measurements/measurement-records';
 import { MARK_TOLERANCE_PX, type InterceptBody, type PointCountBody, type ThicknessBody } from '../../shared/measurements/measurements';
 import { pointFraction } from '../../shared/measurements/point-count';
-import { bandOf, distanceToPath, type FieldFrame } from './field-geometry';
+import { bandOf, distanceToInterfaces, distanceToPath, lengthInDistanceRange, type FieldFrame } from './field-geometry';
+
+type Phase = { name: string; volumeFraction: number } | null;
+
+/** The phase with its volume fraction (always set once the server has resolved a point count). */
+function phaseOf(def: InterceptBody): Phase {
+  if (!def.phase) return null;
+  if (def.phase.volumeFraction === undefined) throw new RangeError('A two-phase definition reached the results without its volume fraction.');
+  return { name: def.phase.name, volumeFraction: def.phase.volumeFraction };
+}
 
 /**
  * Results from definitions, with the shared E112/E562 functions only. Nothing here trusts a number
@@ -22,7 +31,7 @@ function directionOf(family: TestPath['family'], frame: FieldFrame): Direction {
   return (family === 'horizontal') === (frame.axis === 'x') ? 'along' : 'across';
 }
 
-function figures(lengthPx: number, count: number, umPerPx: number, phase: InterceptBody['phase']): InterceptFigures {
+function figures(lengthPx: number, count: number, umPerPx: number, phase: Phase): InterceptFigures {
   const lineLengthUm = lengthPx * umPerPx;
   if (!(count > 0) || !(lineLengthUm > 0)) return { lineLengthUm, count, perMm: null, meanInterceptUm: null, g: null, gIso: null };
   const field = fieldResult({ lineLengthUm, count });
@@ -33,15 +42,16 @@ function figures(lengthPx: number, count: number, umPerPx: number, phase: Interc
 }
 
 /** P or N, P_L or N_L, l̄ and G of one field, per direction for crossed lines. */
-export function interceptResult(def: InterceptBody, paths: readonly TestPath[], frame: FieldFrame, umPerPx: number): InterceptResult {
+export function interceptResult(def: InterceptBody, paths: readonly TestPath[], frame: FieldFrame, umPerPx: number, pointCount: PointCountSource | null = null): InterceptResult {
   const rules = rulesOf(def);
+  const phase = phaseOf(def);
   const confirmed = def.marks.filter((m) => m.status === 'confirmed');
   const counted = confirmed.filter((m) => paths[m.line] && distanceToPath([m.x, m.y], paths[m.line]!) <= MARK_TOLERANCE_PX);
   const tally = (dir: Direction | null) => {
     const inDir = (line: number) => dir === null || directionOf(paths[line]!.family, frame) === dir;
     const length = paths.filter((p) => inDir(p.line)).reduce((sum, p) => sum + p.lengthPx, 0);
     const count = counted.filter((m) => inDir(m.line)).reduce((sum, m) => sum + markValue(m.kind, rules), 0);
-    return figures(length, count, umPerPx, def.phase);
+    return figures(length, count, umPerPx, phase);
   };
   const crossed = def.pattern.type === 'lines' && def.pattern.direction === 'both';
   const direction: Direction = crossed ? 'all' : directionOf(paths[0]?.family ?? 'circle', frame);
@@ -57,7 +67,14 @@ export function interceptResult(def: InterceptBody, paths: readonly TestPath[], 
     def.twinsExcluded ? 'Annealing twin boundaries were excluded (E112 grain size).' : 'Annealing twin boundaries were counted as boundaries (not an E112 grain size; report it "with twins").',
     frame.axisSource === 'bond_interfaces' ? `"Along" follows the bond interfaces (image ${frame.axis}).` : 'No bond interfaces are drawn: "along" is taken as the image x axis.',
   ];
-  if (def.phase) statements.push(`Two-phase: l̄ of ${def.phase.name} = V_V·L / N with V_V = ${def.phase.volumeFraction}.`);
+  if (phase) {
+    const from = pointCount
+      ? ` from the saved point count of “${pointCount.phaseName}” on ${pointCount.whereLabel} (version ${pointCount.version}, P_p = ${round4(pointCount.pointFraction)})`
+      : ' as typed in';
+    statements.push(`Two-phase: l̄ of ${phase.name} = V_V·L / N with V_V = ${round4(phase.volumeFraction)}${from}.`);
+  }
+  const bins = def.distanceBinsUm ? distanceBins(def.distanceBinsUm, paths, counted, frame, umPerPx, rules, phase) : null;
+  if (bins) statements.push(`Sub-bands by distance from the nearest bond interface: ${def.distanceBinsUm!.join(', ')} µm; all directions pooled in each.`);
   const suggested = def.marks.length - confirmed.length;
   if (suggested > 0) statements.push(`${suggested} suggested mark${suggested > 1 ? 's are' : ' is'} not counted until confirmed.`);
   const leftOut = confirmed.length - counted.length;
@@ -70,12 +87,33 @@ export function interceptResult(def: InterceptBody, paths: readonly TestPath[], 
     direction,
     byDirection,
     twinsExcluded: def.twinsExcluded,
-    phase: def.phase,
+    phase: phase ? { ...phase, pointCount } : null,
+    bins,
     confirmedMarks: counted.length,
     suggestedMarks: suggested,
     marksLeftOut: leftOut,
     statements,
   };
+}
+
+/**
+ * Per sub-band: the counted line lying minUm–maxUm from the nearest interface and the marks there (a mark
+ * exactly on an edge belongs to the farther sub-band, the last one keeps its outer edge).
+ */
+function distanceBins(edgesUm: readonly number[], paths: readonly TestPath[], marks: readonly InterceptBody['marks'][number][], frame: FieldFrame, umPerPx: number, rules: CountRules, phase: Phase): DistanceBin[] {
+  const markUm = marks.map((m) => ({ m, d: distanceToInterfaces([m.x, m.y], frame) * umPerPx }));
+  return edgesUm.slice(1).map((maxUm, i) => {
+    const minUm = edgesUm[i]!;
+    const last = i === edgesUm.length - 2;
+    const lengthPx = paths.reduce((sum, p) => sum + lengthInDistanceRange(p, frame, minUm / umPerPx, maxUm / umPerPx), 0);
+    const inBin = markUm.filter(({ d }) => d >= minUm && (d < maxUm || (last && d <= maxUm)));
+    const count = inBin.reduce((sum, { m }) => sum + markValue(m.kind, rules), 0);
+    return { minUm, maxUm, marks: inBin.length, ...figures(lengthPx, count, umPerPx, phase) };
+  });
+}
+
+function round4(v: number): number {
+  return Math.round(v * 10_000) / 10_000;
 }
 
 /** Index of the grid point a mark sits on, or -1. */

@@ -5,6 +5,7 @@ import type { TestLine } from '../../shared/measurements/patterns';
 import { User } from '../auth/user.entity';
 import { Image } from '../images/image.entity';
 import type { FieldFrame } from './field-geometry';
+import type { MeasurementSources } from './measurement-sources';
 
 /** What a result was counted on, besides the definition: the frame, and the pattern or grid as laid in px. */
 export interface MeasurementLayout extends Omit<FieldFrame, 'where' | 'umPerPx'> {
@@ -15,6 +16,8 @@ export interface MeasurementLayout extends Omit<FieldFrame, 'where' | 'umPerPx'>
   gridSpacingPx: number | null;
   /** What was counted at the last compute (clipped test lines, grid points in the region), for drawing it again. */
   counted: { testLines: TestPath[]; grid: [number, number][] };
+  /** The annotations (ids and versions) and point count the result used; absent on rows saved before they were recorded. */
+  sources?: MeasurementSources;
 }
 
 /** One measured field; `version` guards against silent overwrites, the history keeps what it replaced. */

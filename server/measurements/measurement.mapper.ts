@@ -1,4 +1,5 @@
-import type { Measurement as MeasurementDto, MeasurementHistoryEntry, MeasurementResult } from '../../shared/measurements/measurement-records';
+import type { Measurement as MeasurementDto, MeasurementHistoryEntry, MeasurementResult, StaleNote } from '../../shared/measurements/measurement-records';
+import { sourceChanges, type CurrentShapes } from './measurement-sources';
 import type { MeasurementHistory } from './measurement-history.entity';
 import type { Measurement } from './measurement.entity';
 
@@ -7,15 +8,21 @@ export function formatUmPerPx(v: number): string {
   return String(Number(v.toPrecision(6)));
 }
 
-/** Set when the image's pixel size is no longer the one the result was computed with. */
-export function staleness(measuredUmPerPx: number, imageUmPerPx: number | null): MeasurementDto['stale'] {
-  if (imageUmPerPx !== null && Math.abs(imageUmPerPx - measuredUmPerPx) <= 1e-9 * measuredUmPerPx) return null;
+/**
+ * Set when the image's pixel size is no longer the one the result was computed with, or when
+ * `changes` name shapes or a point count that changed since (see measurement-sources.ts).
+ */
+export function staleness(measuredUmPerPx: number, imageUmPerPx: number | null, changes: readonly string[] = []): StaleNote | null {
+  const samePixel = imageUmPerPx !== null && Math.abs(imageUmPerPx - measuredUmPerPx) <= 1e-9 * measuredUmPerPx;
+  if (samePixel && changes.length === 0) return null;
   const now = imageUmPerPx === null ? 'the image now has no pixel size (calibrate it, then recompute)' : `the image now has ${formatUmPerPx(imageUmPerPx)} µm/px; recompute to update the result`;
-  return { measuredUmPerPx, imageUmPerPx, message: `Measured at ${formatUmPerPx(measuredUmPerPx)} µm/px; ${now}.` };
+  const pixel = samePixel ? '' : `Measured at ${formatUmPerPx(measuredUmPerPx)} µm/px; ${now}.`;
+  const message = changes.length === 0 ? pixel : [pixel, `Since this result was computed: ${changes.join(' ')}`, 'Recompute to count on the shapes as they are now; the old result stays in the history.'].filter(Boolean).join(' ');
+  return { measuredUmPerPx, imageUmPerPx, changes: [...changes], message };
 }
 
-/** Expects `author` and `image` loaded. */
-export function toMeasurementDto(m: Measurement): MeasurementDto {
+/** Expects `author` and `image` loaded; `now` holds the image's current shapes and point counts. */
+export function toMeasurementDto(m: Measurement, now: CurrentShapes): MeasurementDto {
   return {
     id: m.id,
     projectId: m.projectId,
@@ -28,7 +35,7 @@ export function toMeasurementDto(m: Measurement): MeasurementDto {
     gridPoints: m.layout.counted.grid,
     pixelSize: { umPerPx: m.umPerPx, source: m.pixelSizeSource },
     result: m.result,
-    stale: staleness(m.umPerPx, m.image.pixelSizeUm),
+    stale: staleness(m.umPerPx, m.image.pixelSizeUm, sourceChanges(m.layout.sources, m.imageId, now)),
     authorId: m.authorId,
     authorName: m.author.displayName,
     createdAt: m.createdAt.toISOString(),

@@ -7,7 +7,9 @@ import type { AppContext } from '../app-context';
 import { AppError } from '../http/app-error';
 import { Image } from '../images/image.entity';
 import { returnToDraftIfCleared } from '../reviews/return-to-draft';
-import { checkMarks, compute, invalid, layOut, pixelSizeOf, readFrame, type Computed, type FrameSnapshot } from './measurement-build';
+import { checkBins, checkMarks, compute, invalid, layOut, pixelSizeOf, readFrame, resolvePhase, withSources, type Computed, type FrameSnapshot } from './measurement-build';
+import { whereLabel } from './field-geometry';
+import { currentShapes, sourceChanges } from './measurement-sources';
 import { MeasurementHistory } from './measurement-history.entity';
 import { describeResult, formatUmPerPx, KIND_WORDS, staleness, toHistoryEntry, toMeasurementDto } from './measurement.mapper';
 import { Measurement, type MeasurementLayout } from './measurement.entity';
@@ -23,7 +25,8 @@ export class MeasurementsService {
     const m = this.ctx.dataSource.manager;
     await this.image(m, projectId, imageId);
     const rows = await m.find(Measurement, { where: { imageId }, relations: { author: true, image: true }, order: { createdAt: 'ASC' } });
-    return rows.map(toMeasurementDto);
+    const now = await currentShapes(m, [imageId]);
+    return rows.map((row) => toMeasurementDto(row, now));
   }
 
   async detail(projectId: string, imageId: string, id: string): Promise<MeasurementDetail> {
@@ -31,19 +34,22 @@ export class MeasurementsService {
     await this.image(m, projectId, imageId);
     const current = await this.find(m, imageId, id);
     const history = await m.find(MeasurementHistory, { where: { measurementId: id }, relations: { replacer: true }, order: { seq: 'DESC' } });
-    return { ...toMeasurementDto(current), history: history.map(toHistoryEntry) };
+    return { ...toMeasurementDto(current, await currentShapes(m, [imageId])), history: history.map(toHistoryEntry) };
   }
 
   async create(user: Express.User, projectId: string, imageId: string, body: MeasurementBody): Promise<MeasurementDto> {
     return this.ctx.dataSource.transaction(async (m) => {
       const image = await this.image(m, projectId, imageId);
       const umPerPx = pixelSizeOf(image);
-      const layout = layOut(body, await readFrame(m, image, body.where), umPerPx);
-      const computed = compute(body, layout, umPerPx);
-      checkMarks(body, layout, computed, umPerPx);
+      const frame = await readFrame(m, image, body.where);
+      checkBins(body, frame);
+      const { def, pointCount } = await resolvePhase(m, imageId, body, whereLabel(body.where, frame.regionLabel));
+      const layout = layOut(def, withSources(frame, def, pointCount), umPerPx);
+      const computed = compute(def, layout, umPerPx);
+      checkMarks(def, layout, computed, umPerPx);
       const saved = await m.save(
         m.create(Measurement, {
-          projectId, imageId, kind: body.kind, definition: body, layout: withCounted(layout, computed), result: computed.result,
+          projectId, imageId, kind: def.kind, definition: def, layout: withCounted(layout, computed), result: computed.result,
           whereLabel: computed.whereLabel, umPerPx, pixelSizeSource: image.pixelSizeSource, authorId: user.id, updatedBy: user.id,
         }),
       );
@@ -62,10 +68,17 @@ export class MeasurementsService {
       const current = await this.find(m, imageId, id);
       if (current.version !== body.version) await this.conflict(m, current, body.version);
       const { version, ...changes } = body;
-      const def = parseMerged(current.definition, changes);
+      const merged = parseMerged(current.definition, changes);
       const { laid, gridSpacingPx, counted, ...kept } = current.layout;
-      // A new where reads the annotations again (interfaces may have been redrawn); otherwise the stored frame stands.
-      const frame: FrameSnapshot = 'where' in changes ? await readFrame(m, image, def.where) : kept;
+      // A new where or new sub-bands read the annotations again (interfaces may have been redrawn); otherwise the stored frame stands.
+      const reread = 'where' in changes || differs(current.definition, merged, 'distanceBinsUm');
+      const read: FrameSnapshot = reread ? await readFrame(m, image, merged.where) : kept;
+      checkBins(merged, read);
+      // A changed phase is resolved again (its point count may be another); otherwise the stored V_V and its source stand.
+      const rephase = reread || differs(current.definition, merged, 'phase');
+      const phase = rephase ? await resolvePhase(m, imageId, merged, whereLabel(merged.where, read.regionLabel)) : { def: keepVolumeFraction(merged, current.definition), pointCount: kept.sources?.pointCount ?? null };
+      const def = phase.def;
+      const frame = reread || rephase ? withSources(read, def, phase.pointCount) : read;
       const relay = 'pattern' in changes || 'placement' in changes || 'grid' in changes;
       const layout: MeasurementLayout = relay ? layOut(def, frame, current.umPerPx) : { ...frame, laid, gridSpacingPx, counted };
       const computed = compute(def, layout, current.umPerPx);
@@ -87,14 +100,26 @@ export class MeasurementsService {
       const current = await this.find(m, imageId, id);
       if (current.version !== version) await this.conflict(m, current, version);
       const umPerPx = pixelSizeOf(image);
+      const changes = sourceChanges(current.layout.sources, imageId, await currentShapes(m, [imageId]));
       // Nothing changed since it was computed: answer it as it is, without a history row.
-      if (staleness(current.umPerPx, image.pixelSizeUm) === null) return this.reload(m, id);
-      const computed = compute(current.definition, current.layout, umPerPx);
+      if (staleness(current.umPerPx, image.pixelSizeUm, changes) === null) return this.reload(m, id);
+      let { definition: def, layout } = current;
+      if (changes.length > 0) {
+        // The shapes (or the point count) changed: read them as they are now; the pattern stays laid where its marks are.
+        const { laid, gridSpacingPx, counted } = layout;
+        const frame = await readFrame(m, image, def.where, 'where');
+        checkBins(def, frame);
+        const phase = await resolvePhase(m, imageId, def, whereLabel(def.where, frame.regionLabel));
+        def = phase.def;
+        layout = { ...withSources(frame, def, phase.pointCount), laid, gridSpacingPx, counted };
+      }
+      const computed = compute(def, layout, umPerPx);
       await this.replace(m, user, current, version, 'recomputed', {
-        layout: withCounted(current.layout, computed), result: computed.result, whereLabel: computed.whereLabel,
+        definition: def, layout: withCounted(layout, computed), result: computed.result, whereLabel: computed.whereLabel,
         umPerPx, pixelSizeSource: image.pixelSizeSource, computedAt: new Date(),
       });
-      const summary = `recomputed a measurement at ${formatUmPerPx(umPerPx)} µm/px (was ${formatUmPerPx(current.umPerPx)}): ${describeResult(computed.result)}`;
+      const why = changes.length > 0 ? `after ${changes.length} change${changes.length > 1 ? 's' : ''} to what it used` : `at ${formatUmPerPx(umPerPx)} µm/px (was ${formatUmPerPx(current.umPerPx)})`;
+      const summary = `recomputed a measurement ${why}: ${describeResult(computed.result)}`;
       await recordActivity(m, { projectId, imageId, actorId: user.id, action: 'measurement.updated', summary, details: { measurementId: id, version: version + 1 } });
       await returnToDraftIfCleared(m, imageId, user.id, 'the measurements');
       return this.reload(m, id);
@@ -141,7 +166,8 @@ export class MeasurementsService {
   }
 
   private async reload(m: EntityManager, id: string): Promise<MeasurementDto> {
-    return toMeasurementDto(await m.findOneOrFail(Measurement, { where: { id }, relations: { author: true, image: true } }));
+    const row = await m.findOneOrFail(Measurement, { where: { id }, relations: { author: true, image: true } });
+    return toMeasurementDto(row, await currentShapes(m, [row.imageId]));
   }
 
   private async conflict(m: EntityManager, before: Measurement, sentVersion: number): Promise<never> {
@@ -153,6 +179,24 @@ export class MeasurementsService {
         : 'Someone deleted this measurement after you loaded it.',
     );
   }
+}
+
+/** Whether a definition field differs between the stored and the merged definition (as JSON). */
+function differs(stored: MeasurementBody, merged: MeasurementBody, key: 'distanceBinsUm' | 'phase'): boolean {
+  const value = (d: MeasurementBody) => JSON.stringify(d.kind === 'intercept' ? withoutFilledFraction(d, key) : null);
+  return value(stored) !== value(merged);
+}
+
+/** The phase as a person chose it: a V_V the server filled in from a point count is not part of the choice. */
+function withoutFilledFraction(d: Extract<MeasurementBody, { kind: 'intercept' }>, key: 'distanceBinsUm' | 'phase'): unknown {
+  if (key === 'distanceBinsUm') return d.distanceBinsUm;
+  return d.phase?.pointCountId ? { name: d.phase.name, pointCountId: d.phase.pointCountId } : d.phase;
+}
+
+/** An unchanged point-count phase keeps the V_V it was resolved to. */
+function keepVolumeFraction(merged: MeasurementBody, stored: MeasurementBody): MeasurementBody {
+  if (merged.kind !== 'intercept' || stored.kind !== 'intercept' || !merged.phase?.pointCountId || !stored.phase) return merged;
+  return { ...merged, phase: { ...merged.phase, volumeFraction: stored.phase.volumeFraction } };
 }
 
 function withCounted(layout: MeasurementLayout, computed: Computed): MeasurementLayout {

@@ -1,7 +1,6 @@
 import { performance } from 'node:perf_hooks';
 import type { Readable } from 'node:stream';
-import type { Modality } from '../../shared/images';
-import { findSteps, findValleys, type CrossingDetector } from '../../shared/measurements/crossings';
+import { defaultDetector, findSteps, findValleys } from '../../shared/measurements/crossings';
 import type { SuggestedCrossings, TestPath } from '../../shared/measurements/measurement-records';
 import type { InterceptMark, SuggestBody } from '../../shared/measurements/measurements';
 import type { AppContext } from '../app-context';
@@ -17,17 +16,6 @@ const WINDOW_SAMPLE_LIMIT = 48_000_000;
 
 /** Pieces shorter than this (px) carry too few samples for the detectors' noise estimate. */
 const SHORTEST_PIECE_PX = 8;
-
-/**
- * The detector that fits how an image was made: etched light micrographs and band-contrast maps show
- * boundaries as dark lines (valleys); orientation and phase maps and BSE images show grains as flat
- * tones that change at the boundary (steps). Other modalities have no sensible default.
- */
-export function defaultDetector(modality: Modality): CrossingDetector | null {
-  if (modality.startsWith('lom_') || modality === 'ebsd_band_contrast') return 'valleys';
-  if (modality === 'sem_backscattered' || modality === 'ebsd_orientation' || modality === 'ebsd_phase' || modality === 'ebsd_other') return 'steps';
-  return null;
-}
 
 /** Suggested crossings along a pattern, from the original's pixels. Nothing is stored: a person confirms what they keep. */
 export class SuggestService {

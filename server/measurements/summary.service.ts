@@ -14,6 +14,7 @@ import type { AppContext } from '../app-context';
 import { Specimen } from '../archive/specimen.entity';
 import { AppError } from '../http/app-error';
 import { staleness } from './measurement.mapper';
+import { currentShapes, sourceChanges } from './measurement-sources';
 import { Measurement } from './measurement.entity';
 
 /** E112 and E562 ask for at least this many fields. */
@@ -48,19 +49,26 @@ export class SummaryService {
 
   async summary(projectId: string, specimenId: string): Promise<SpecimenMeasurementSummary> {
     const { specimen, rows } = await this.fields(projectId, specimenId);
-    const stale = (m: Measurement) => staleness(m.umPerPx, m.image.pixelSizeUm) !== null;
-    const intercepts = new Map<string, { where: string; direction: Direction; phase: string | null; entries: (Entry & { figures: InterceptFigures; symbol: 'P' | 'N' })[] }>();
+    const now = await currentShapes(this.ctx.dataSource.manager, rows.map((m) => m.imageId));
+    const stale = (m: Measurement) => staleness(m.umPerPx, m.image.pixelSizeUm, sourceChanges(m.layout.sources, m.imageId, now)) !== null;
+    type Place = { where: string; band: number | null; distanceUm: { min: number; max: number } | null };
+    const intercepts = new Map<string, Place & { direction: Direction; phase: string | null; entries: (Entry & { figures: InterceptFigures; symbol: 'P' | 'N' })[] }>();
     const points = new Map<string, { where: string; phaseName: string; entries: (Entry & { gridPoints: number })[] }>();
     const thickness = new Map<string, { where: string; entries: Entry[] }>();
     for (const m of rows) {
       const r = m.result;
       if (r.kind === 'intercept') {
-        const parts: [Direction, InterceptFigures][] = [[r.direction, r]];
-        if (r.byDirection) parts.push(['along', r.byDirection.along], ['across', r.byDirection.across]);
-        for (const [direction, figures] of parts) {
+        const where = m.definition.where;
+        const band = where.type === 'band' ? where.band : null;
+        const place: Place = { where: m.whereLabel, band, distanceUm: where.type === 'band' && 'distanceUm' in where ? (where.distanceUm ?? null) : null };
+        const parts: [Place, Direction, InterceptFigures][] = [[place, r.direction, r]];
+        if (r.byDirection) parts.push([place, 'along', r.byDirection.along], [place, 'across', r.byDirection.across]);
+        // Each sub-band is a field of its own group, pooled with sub-bands measured alone at the same distances.
+        for (const bin of r.bins ?? []) parts.push([{ where: `${m.whereLabel}, ${bin.minUm}–${bin.maxUm} µm from the nearest bond interface`, band, distanceUm: { min: bin.minUm, max: bin.maxUm } }, 'all', bin]);
+        for (const [at, direction, figures] of parts) {
           const phase = r.phase?.name ?? null;
-          const key = `${m.whereLabel}|${direction}|${phase ?? ''}`;
-          if (!intercepts.has(key)) intercepts.set(key, { where: m.whereLabel, direction, phase, entries: [] });
+          const key = `${at.where}|${direction}|${phase ?? ''}`;
+          if (!intercepts.has(key)) intercepts.set(key, { ...at, direction, phase, entries: [] });
           intercepts.get(key)!.entries.push({ value: figures.meanInterceptUm, stale: stale(m), figures, symbol: r.countSymbol });
         }
       } else if (r.kind === 'point_count') {
@@ -83,6 +91,8 @@ export class SummaryService {
       interceptRows.push({
         ...common,
         direction: g.direction,
+        band: g.band,
+        distanceUm: g.distanceUm,
         phase: g.phase,
         meanIntercept: stats,
         g: gAstm,
@@ -134,7 +144,7 @@ function groupBase(where: string, entries: readonly Entry[], what: string): { wh
   if (stats.relativeAccuracyPct !== null && stats.relativeAccuracyPct > RELATIVE_ACCURACY_LIMIT_PCT) {
     warnings.push(`The relative accuracy of ${what} is ${stats.relativeAccuracyPct.toFixed(1)} %, above ${RELATIVE_ACCURACY_LIMIT_PCT} %: measure more fields.`);
   }
-  if (staleFields > 0) warnings.push(`${staleFields} field${staleFields > 1 ? 's were' : ' was'} measured at a pixel size the image no longer has; recompute ${staleFields > 1 ? 'them' : 'it'}.`);
+  if (staleFields > 0) warnings.push(`${staleFields} field${staleFields > 1 ? 's were' : ' was'} measured at a pixel size or on shapes that have changed since; recompute ${staleFields > 1 ? 'them' : 'it'}.`);
   if (emptyFields > 0) warnings.push(`${emptyFields} field${emptyFields > 1 ? 's have' : ' has'} nothing counted yet and ${emptyFields > 1 ? 'are' : 'is'} left out.`);
   return { where, staleFields, emptyFields, warnings, stats };
 }

@@ -6,6 +6,17 @@
  */
 export type CrossingDetector = 'valleys' | 'steps';
 
+/**
+ * The detector that fits how an image was made: etched light micrographs and band-contrast maps show
+ * boundaries as dark lines (valleys); orientation and phase maps and BSE images show grains as flat
+ * tones that change at the boundary (steps). Other modalities have no sensible default (null).
+ */
+export function defaultDetector(modality: string): CrossingDetector | null {
+  if (modality.startsWith('lom_') || modality === 'ebsd_band_contrast') return 'valleys';
+  if (modality === 'sem_backscattered' || modality === 'ebsd_orientation' || modality === 'ebsd_phase' || modality === 'ebsd_other') return 'steps';
+  return null;
+}
+
 export interface DetectorOptions {
   /** Smallest distance between two crossings, samples (a boundary is a few pixels wide). */
   minSeparation: number;

@@ -39,7 +39,10 @@ export interface InterceptResult extends InterceptFigures {
   /** For direction "both": along vs across and the anisotropy index l̄∥ / l̄⊥. */
   byDirection: { along: InterceptFigures; across: InterceptFigures; anisotropyIndex: number | null } | null;
   twinsExcluded: boolean;
-  phase: { name: string; volumeFraction: number } | null;
+  /** Two-phase: the phase, its V_V, and the saved point count V_V came from (null when typed in). */
+  phase: { name: string; volumeFraction: number; pointCount: PointCountSource | null } | null;
+  /** Per sub-band by distance from the nearest bond interface (all directions pooled); null without sub-bands. */
+  bins: DistanceBin[] | null;
   confirmedMarks: number;
   /** Suggested marks are shown, never counted. */
   suggestedMarks: number;
@@ -47,6 +50,23 @@ export interface InterceptResult extends InterceptFigures {
   marksLeftOut: number;
   /** Sentences that belong beside the number: method, rules, exclusions. */
   statements: string[];
+}
+
+/** One sub-band of a field: the counted line and marks lying minUm–maxUm from the nearest bond interface. */
+export interface DistanceBin extends InterceptFigures {
+  minUm: number;
+  maxUm: number;
+  /** Confirmed marks in this sub-band. */
+  marks: number;
+}
+
+/** The saved point count a two-phase result took its volume fraction from, as it was when used. */
+export interface PointCountSource {
+  id: string;
+  version: number;
+  phaseName: string;
+  whereLabel: string;
+  pointFraction: number;
 }
 
 export interface PointCountResult {
@@ -96,14 +116,26 @@ export interface Measurement {
   /** Snapshot of the pixel size the result was computed with. */
   pixelSize: { umPerPx: number; source: string };
   result: MeasurementResult;
-  /** Set when the image's pixel size changed after this result was computed. */
-  stale: { measuredUmPerPx: number; imageUmPerPx: number | null; message: string } | null;
+  /**
+   * Set when what the result was computed from changed afterwards: the image's pixel size, the bond
+   * interfaces or region outline it used (redrawn, deleted, added), or the point count it took V_V from.
+   */
+  stale: StaleNote | null;
   authorId: string;
   authorName: string;
   createdAt: string;
   updatedAt: string;
   computedAt: string;
   version: number;
+}
+
+export interface StaleNote {
+  measuredUmPerPx: number;
+  imageUmPerPx: number | null;
+  /** One sentence per change besides the pixel size ("The bond interface “top” was redrawn."). */
+  changes: string[];
+  /** All of it, with what to do. */
+  message: string;
 }
 
 /** A result that was replaced (edit, recompute) or removed; the history is only ever appended to. */
@@ -145,7 +177,7 @@ export interface AcrossFields {
 interface SummaryGroup {
   /** "whole image", "band 2", "band 2, 0–20 µm from the nearest bond interface", "outlined regions". */
   where: string;
-  /** Fields measured at a pixel size the image no longer has (recompute them). */
+  /** Fields measured on a pixel size or shapes that have changed since (recompute them). */
   staleFields: number;
   /** Fields left out because nothing was counted on them yet. */
   emptyFields: number;
@@ -154,6 +186,10 @@ interface SummaryGroup {
 
 export interface InterceptSummary extends SummaryGroup {
   direction: Direction;
+  /** The layer band of the group, if it is one (or a sub-band of one). */
+  band: number | null;
+  /** Set for a sub-band by distance from the nearest bond interface. */
+  distanceUm: { min: number; max: number } | null;
   phase: string | null;
   /** l̄ per field, µm. */
   meanIntercept: AcrossFields;

@@ -90,6 +90,15 @@ export const countRules = z.strictObject({
 
 const note = z.string().trim().max(2000, { error: 'Use at most 2000 characters.' }).default('');
 
+/** Sub-band edges: at least two, rising, from 0 µm (or more) outwards. */
+export const distanceBins = z
+  .array(z.number({ error: 'Enter each edge in µm.' }).finite().min(0, { error: 'A distance from the interface cannot be negative.' }).max(1e6, { error: 'An edge is above 1 m; check the unit.' }), {
+    error: 'Give the sub-band edges as a list of distances in µm.',
+  })
+  .min(2, { error: 'Give at least two edges (e.g. 0 and 20 µm) for one sub-band.' })
+  .max(21, { error: 'Use at most 20 sub-bands.' })
+  .refine((edges) => edges.every((e, i) => i === 0 || e > edges[i - 1]!), { error: 'Each edge must lie farther from the interface than the one before (e.g. 0, 20, 40 µm).' });
+
 export const interceptBody = z
   .strictObject({
     kind: z.literal('intercept'),
@@ -101,14 +110,27 @@ export const interceptBody = z
     rules: countRules.optional(),
     /** Annealing twin boundaries are not grain boundaries for E112; say whether they were skipped. */
     twinsExcluded: z.boolean().default(true),
-    /** Two-phase structures: the phase whose intercepts were counted and its volume fraction. */
+    /**
+     * Two-phase structures: the phase whose intercepts were counted and its volume fraction, typed in or
+     * taken from a saved point count (E562) of the same place on the same image (the server then fills it in).
+     */
     phase: z
       .strictObject({
         name: z.string().trim().min(1, { error: 'Name the phase.' }).max(60),
-        volumeFraction: z.number().gt(0, { error: 'A volume fraction lies above 0.' }).lte(1, { error: 'A volume fraction is at most 1.' }),
+        volumeFraction: z.number().gt(0, { error: 'A volume fraction lies above 0.' }).lte(1, { error: 'A volume fraction is at most 1.' }).optional(),
+        pointCountId: z.uuid({ error: 'Choose a saved point count on this image.' }).optional(),
+      })
+      .refine((p) => p.volumeFraction !== undefined || p.pointCountId !== undefined, {
+        error: 'Give the volume fraction of the phase, or choose a saved point count that measured it.',
+        path: ['volumeFraction'],
       })
       .nullable()
       .default(null),
+    /**
+     * Sub-bands by distance from the nearest bond interface: bin edges in µm, e.g. [0, 20, 40, 60] for
+     * 0–20, 20–40 and 40–60 µm. The field is counted as a whole and, besides, per sub-band.
+     */
+    distanceBinsUm: distanceBins.nullable().default(null),
     note,
   })
   .refine((b) => b.phase === null || b.rules === undefined || b.rules.count === 'intercepts', {
@@ -169,6 +191,7 @@ export const updateMeasurementBody = z
     rules: countRules.optional(),
     twinsExcluded: z.boolean().optional(),
     phase: z.unknown().optional(),
+    distanceBinsUm: z.unknown().optional(),
     grid: z.unknown().optional(),
     phaseName: z.string().optional(),
     spacingUm: z.number().optional(),

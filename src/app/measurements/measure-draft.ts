@@ -119,6 +119,7 @@ export function bodyOf(d: DraftDefinition): MeasurementBody {
     rules: d.rules,
     twinsExcluded: true,
     phase: null,
+    distanceBinsUm: null,
     note: d.note,
   };
 }

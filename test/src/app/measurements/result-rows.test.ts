@@ -17,6 +17,7 @@ const intercept = (over: Partial<InterceptResult> = {}): InterceptResult => ({
   rules: { count: 'intersections', triplePoint: 1.5 },
   direction: 'along',
   byDirection: null,
+  bins: null,
   twinsExcluded: true,
   phase: null,
   confirmedMarks: 60,

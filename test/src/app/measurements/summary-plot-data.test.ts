@@ -9,6 +9,8 @@ const row = (where: string, direction: InterceptSummary['direction'], meanInterc
   emptyFields: 0,
   warnings: [],
   direction,
+  band: null,
+  distanceUm: null,
   phase,
   meanIntercept,
   g: 6,
