@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { ReviewState } from './reviews';
 import { niceLengthAtMost, scaleLabel } from './viewer/scale-bar';
 
 /** Where a panel's scale bar sits. */
@@ -24,8 +25,15 @@ export interface FigureSpec {
   gapMm: number;
   /** One bar length for every panel, when their pixel sizes allow it. */
   commonScaleBar: boolean;
+  /** The printed width the figure is made for, in mm; clearing renders the kept export at this size. */
+  widthMm: number;
+  /** Dots per inch of that print; clearing renders the kept export at this resolution. */
+  dpi: number;
   panels: PanelSpec[];
 }
+
+/** Print size of figures saved before the figure carried one (a full page at 300 dpi). */
+export const DEFAULT_PRINT = { widthMm: 170, dpi: 300 } as const;
 
 export interface Figure extends FigureSpec {
   id: string;
@@ -33,7 +41,12 @@ export interface Figure extends FigureSpec {
   version: number;
   createdByName: string;
   updatedAt: string;
+  /** Where the figure stands in review ('draft' until someone submits it). */
+  reviewState: ReviewState;
 }
+
+const printWidthMm = z.number().min(20, { error: 'At least 20 mm wide.' }).max(500, { error: 'At most 500 mm wide.' });
+const printDpi = z.number().int({ error: 'Enter a whole number of dots per inch.' }).min(72, { error: 'At least 72 dpi.' }).max(1200, { error: 'At most 1200 dpi.' });
 
 const panel = z.strictObject({
   imageId: z.uuid({ error: 'Choose an image.' }),
@@ -56,22 +69,35 @@ const panel = z.strictObject({
     .default({ lengthUm: null, position: 'bottom-right', colour: 'auto', show: true }),
 });
 
-export const figureBody = z.strictObject({
+/** The fields of a figure, without defaults: a PATCH changes only what it names. */
+const figureFields = {
   title: z.string().trim().min(1, { error: 'Enter a title.' }).max(200),
-  columns: z.number().int().min(1).max(6).default(2),
-  gapMm: z.number().min(0).max(20).default(1.5),
-  commonScaleBar: z.boolean().default(true),
+  columns: z.number().int().min(1).max(6),
+  gapMm: z.number().min(0).max(20),
+  commonScaleBar: z.boolean(),
+  widthMm: printWidthMm,
+  dpi: printDpi,
   panels: z.array(panel).min(1, { error: 'A figure needs at least one panel.' }).max(24),
+};
+
+export const figureBody = z.strictObject({
+  ...figureFields,
+  columns: figureFields.columns.default(2),
+  gapMm: figureFields.gapMm.default(1.5),
+  commonScaleBar: figureFields.commonScaleBar.default(true),
+  widthMm: figureFields.widthMm.default(DEFAULT_PRINT.widthMm),
+  dpi: figureFields.dpi.default(DEFAULT_PRINT.dpi),
 });
 export type FigureBody = z.infer<typeof figureBody>;
 
-export const updateFigureBody = figureBody.partial().extend({ version: z.number().int().min(1) });
+/** PATCH: the version the caller edited, and only the fields that change (no defaults fill the others in). */
+export const updateFigureBody = z.strictObject(figureFields).partial().extend({ version: z.number().int().min(1) });
 export type UpdateFigureBody = z.infer<typeof updateFigureBody>;
 
 export const exportFigureBody = z.strictObject({
   format: z.enum(['png', 'tiff']),
-  widthMm: z.number().min(20, { error: 'At least 20 mm wide.' }).max(500, { error: 'At most 500 mm wide.' }),
-  dpi: z.number().int().min(72, { error: 'At least 72 dpi.' }).max(1200, { error: 'At most 1200 dpi.' }),
+  widthMm: printWidthMm,
+  dpi: printDpi,
 });
 export type ExportFigureBody = z.infer<typeof exportFigureBody>;
 

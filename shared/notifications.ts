@@ -6,12 +6,12 @@ export type NotificationKind = (typeof NOTIFICATION_KINDS)[number];
 
 /** How each kind reads in settings and in digests. */
 export const NOTIFICATION_KIND_LABELS: Record<NotificationKind, string> = {
-  review_requested: 'An image is submitted for your review',
+  review_requested: 'An image or figure is submitted for your review',
   mention: 'Someone mentions you in a comment',
   changes_requested: 'A reviewer asks for changes to your submission',
   cleared: 'Your submission is cleared for publication',
   reply: 'Someone replies in a thread you are in',
-  returned_to_draft: 'A cleared image you were involved in is back to draft',
+  returned_to_draft: 'A cleared image or figure you were involved in is back to draft',
 };
 
 /** How a person wants their notifications: each as it happens, all of a day in one mail, or none. */
@@ -40,12 +40,18 @@ export const notificationSettingsBody = z.strictObject({
 });
 export type NotificationSettingsBody = z.infer<typeof notificationSettingsBody>;
 
+/** What a notification is about: an image or a figure of the project. */
+export interface NotificationTarget {
+  imageId: string | null;
+  figureId: string | null;
+}
+
 /**
- * The page a notification points at: the image's page, where its review and threads are, opened on
- * the thread when there is one (the viewer is one click from there).
+ * The page a notification points at: the image's page, where its review and threads are (the viewer
+ * is one click from there), or the figure's page; opened on the thread when there is one.
  * Relative, so the server can prefix its public address when it sends.
  */
-export function notificationPath(projectId: string, imageId: string, threadId: string | null): string {
-  const base = `/projects/${projectId}/images/${imageId}`;
+export function notificationPath(projectId: string, target: NotificationTarget, threadId: string | null): string {
+  const base = target.figureId ? `/projects/${projectId}/figures/${target.figureId}` : `/projects/${projectId}/images/${target.imageId}`;
   return threadId ? `${base}?thread=${threadId}` : base;
 }

@@ -80,7 +80,7 @@ export interface ReviewEvent {
   at: string;
 }
 
-/** GET …/images/:imageId/review */
+/** GET …/images/:imageId/review and …/figures/:figureId/review */
 export interface ReviewStatus {
   subjectType: ReviewSubjectType;
   subjectId: string;
@@ -126,14 +126,56 @@ const note = z.string().trim().max(2000, { error: 'Keep the note under 2000 char
 export const reviewTransitionBody = z.strictObject({ note });
 export type ReviewTransitionBody = z.infer<typeof reviewTransitionBody>;
 
-/** A row of a reviewer's queue. */
-export interface ReviewQueueItem {
+/** One file rendered when a figure was cleared, kept unchanged under its SHA-256. */
+export interface ClearedFigureFile {
+  format: 'png' | 'tiff';
+  widthMm: number;
+  dpi: number;
+  /** Pixels of the rendered file. */
+  width: number;
+  height: number;
+  byteSize: number;
+  sha256: string;
+}
+
+/** What a panel's image was when its figure was cleared. */
+export interface ClearedPanelImage {
   imageId: string;
+  name: string;
+  /** µm per px at clearing; null for an uncalibrated image. */
+  pixelSizeUm: number | null;
+  /** Annotations of the classes the figure shows on this image. */
+  annotationsShown: number;
+}
+
+/** A figure as it was cleared: its definition, its panels' images, and the export files rendered then. */
+export interface FigureClearance {
+  id: string;
+  figureId: string;
+  /** The figure version that was cleared. */
+  figureVersion: number;
+  title: string;
+  definition: Record<string, unknown>;
+  images: ClearedPanelImage[];
+  files: ClearedFigureFile[];
+  clearedBy: PersonRef;
+  clearedAt: string;
+}
+
+/** A row of a reviewer's queue: an image or a figure waiting for them. */
+export interface ReviewQueueItem {
+  subjectType: ReviewSubjectType;
+  subjectId: string;
+  /** The image's file name or the figure's title. */
+  name: string;
   projectId: string;
   projectCode: string;
-  imageName: string;
-  modality: Modality;
-  specimenCode: string;
+  /** Images only (null for figures). */
+  modality: Modality | null;
+  /** Images only (null for figures). */
+  specimenCode: string | null;
+  /** Figures only (null for images). */
+  panelCount: number | null;
   submittedBy: PersonRef;
   submittedAt: string;
   openThreads: number;
@@ -149,6 +191,8 @@ export const reviewQueueQuery = z.strictObject({
   pageSize: pagingQuery.pageSize,
   projectId: z.uuid({ error: 'Not a valid project id.' }).optional(),
   modality: optionalList(z.enum(MODALITIES, { error: 'Unknown modality.' }), MODALITIES.length),
+  /** Only images or only figures; a modality filter leaves figures out, as they have none. */
+  subjectType: z.enum(REVIEW_SUBJECT_TYPES, { error: 'Ask for images or figures.' }).optional(),
   submitterId: z.uuid({ error: 'Not a valid user id.' }).optional(),
 });
 export type ReviewQueueQuery = z.infer<typeof reviewQueueQuery>;
@@ -171,7 +215,21 @@ export const threadAnchor = z.discriminatedUnion(
   ],
   { error: 'Pin the thread to a point, a region or a measurement.' },
 );
-export type ThreadAnchor = z.infer<typeof threadAnchor>;
+export type ImageThreadAnchor = z.infer<typeof threadAnchor>;
+
+/** Where a thread on a figure is pinned: the figure as a whole, or one panel (by its place, 0 for the first). */
+export const figureThreadAnchor = z.discriminatedUnion(
+  'kind',
+  [
+    z.strictObject({ kind: z.literal('figure') }),
+    z.strictObject({ kind: z.literal('panel'), panel: z.number({ error: 'Give the panel by its place, 0 for the first.' }).int().min(0).max(23) }),
+  ],
+  { error: 'Pin the thread to the figure or to one of its panels.' },
+);
+export type FigureThreadAnchor = z.infer<typeof figureThreadAnchor>;
+
+/** Any thread's pin: on an image, or on a figure. */
+export type ThreadAnchor = ImageThreadAnchor | FigureThreadAnchor;
 
 const commentText = z
   .string({ error: 'Write a comment.' })
@@ -189,6 +247,10 @@ const mentions = z
 /** POST …/images/:imageId/threads: where to pin it, the first comment, and who to mention. */
 export const newThreadBody = z.strictObject({ anchor: threadAnchor, body: commentText, mentions });
 export type NewThreadBody = z.infer<typeof newThreadBody>;
+
+/** POST …/figures/:figureId/threads: the same, pinned to the figure or one of its panels. */
+export const newFigureThreadBody = z.strictObject({ anchor: figureThreadAnchor, body: commentText, mentions });
+export type NewFigureThreadBody = z.infer<typeof newFigureThreadBody>;
 
 /** POST …/threads/:threadId/comments: a reply. */
 export const commentBody = z.strictObject({ body: commentText, mentions });
@@ -208,11 +270,14 @@ export interface ThreadComment {
   createdAt: string;
 }
 
-/** A thread pinned to an image, with all its comments. */
+/** A thread pinned to an image or a figure, with all its comments. */
 export interface CommentThread {
   id: string;
   projectId: string;
-  imageId: string;
+  /** Set for a thread on an image; null on a figure. */
+  imageId: string | null;
+  /** Set for a thread on a figure; null on an image. */
+  figureId: string | null;
   anchor: ThreadAnchor;
   /** False once the measurement it was pinned to is deleted; the thread and its anchor stay. */
   anchorPresent: boolean;

@@ -23,6 +23,7 @@ import { ProjectMembership } from '../projects/project-membership.entity';
 import { Project } from '../projects/project.entity';
 import { CommentThread } from '../reviews/comment-thread.entity';
 import { Comment } from '../reviews/comment.entity';
+import { FigureClearance } from '../reviews/figure-clearance.entity';
 import { ReviewEvent } from '../reviews/review-event.entity';
 import { ReviewSnapshot } from '../reviews/review-snapshot.entity';
 import { Review } from '../reviews/review.entity';
@@ -54,4 +55,5 @@ export const ENTITIES = [
   Figure,
   FigureExport,
   Review, ReviewEvent, ReviewSnapshot, CommentThread, Comment, Notification, NotificationSetting,
+  FigureClearance,
 ];

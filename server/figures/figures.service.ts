@@ -2,7 +2,8 @@ import { randomUUID } from 'node:crypto';
 import { mkdir, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { In, type EntityManager } from 'typeorm';
-import type { ExportFigureBody, Figure as FigureDto, FigureBody, UpdateFigureBody } from '../../shared/figures';
+import { DEFAULT_PRINT, type ExportFigureBody, type Figure as FigureDto, type FigureBody, type UpdateFigureBody } from '../../shared/figures';
+import type { ReviewState } from '../../shared/reviews';
 import { recordActivity } from '../activity/record-activity';
 import { AnnotationClass } from '../annotations/annotation-class.entity';
 import type { AppContext } from '../app-context';
@@ -10,13 +11,28 @@ import { AppError } from '../http/app-error';
 import { measurementsWithContext } from '../exports/measurements-of';
 import { Image } from '../images/image.entity';
 import { fieldsCsv } from '../measurements/measurements-csv';
+import { specOf } from '../reviews/freeze-figure';
+import { returnFigureToDraftIfCleared } from '../reviews/return-to-draft';
 import { FigureExport } from './figure-export.entity';
 import { Figure } from './figure.entity';
 import { renderFigure } from './figure-renderer';
 
-const toDto = (f: Figure): FigureDto => ({ id: f.id, projectId: f.projectId, title: f.title, ...f.spec, version: f.version, createdByName: f.creator.displayName, updatedAt: f.updatedAt.toISOString() });
+const toDto = (f: Figure, reviewState: ReviewState): FigureDto => ({
+  id: f.id,
+  projectId: f.projectId,
+  title: f.title,
+  ...DEFAULT_PRINT,
+  ...f.spec,
+  version: f.version,
+  createdByName: f.creator.displayName,
+  updatedAt: f.updatedAt.toISOString(),
+  reviewState,
+});
 
-/** Figures keep their definition; every export renders the current annotations and is kept as a file. */
+/**
+ * Figures keep their definition; every export renders the current annotations and is kept as a file.
+ * Editing a cleared figure returns it to draft (its cleared export stays, see server/reviews).
+ */
 export class FiguresService {
   constructor(private readonly ctx: AppContext) {}
 
@@ -25,11 +41,15 @@ export class FiguresService {
   }
 
   async list(projectId: string): Promise<FigureDto[]> {
-    return (await this.ds.getRepository(Figure).find({ where: { projectId }, relations: { creator: true }, order: { updatedAt: 'DESC' } })).map(toDto);
+    const figures = await this.ds.getRepository(Figure).find({ where: { projectId }, relations: { creator: true }, order: { updatedAt: 'DESC' } });
+    const states = await this.reviewStates(this.ds.manager, projectId, figures.map((f) => f.id));
+    return figures.map((f) => toDto(f, states.get(f.id) ?? 'draft'));
   }
 
   async get(projectId: string, figureId: string): Promise<FigureDto> {
-    return toDto(await this.find(this.ds.manager, projectId, figureId));
+    const figure = await this.find(this.ds.manager, projectId, figureId);
+    const states = await this.reviewStates(this.ds.manager, projectId, [figureId]);
+    return toDto(figure, states.get(figureId) ?? 'draft');
   }
 
   async create(user: Express.User, projectId: string, body: FigureBody): Promise<FigureDto> {
@@ -52,11 +72,16 @@ export class FiguresService {
       const result = await m
         .createQueryBuilder()
         .update(Figure)
-        .set({ title: next.title, spec: { columns: next.columns, gapMm: next.gapMm, commonScaleBar: next.commonScaleBar, panels: next.panels }, version: () => 'version + 1' })
+        .set({
+          title: next.title,
+          spec: { columns: next.columns, gapMm: next.gapMm, commonScaleBar: next.commonScaleBar, widthMm: next.widthMm ?? DEFAULT_PRINT.widthMm, dpi: next.dpi ?? DEFAULT_PRINT.dpi, panels: next.panels },
+          version: () => 'version + 1',
+        })
         .where('id = :figureId AND version = :version', { figureId, version })
         .execute();
       if (result.affected !== 1) throw AppError.conflict(`Someone changed this figure after you loaded it (you had version ${version}, it is now ${figure.version}). Reload, then edit again.`);
       await recordActivity(m, { projectId, actorId: user.id, action: 'catalogue.updated', summary: `edited the figure “${next.title}”` });
+      await returnFigureToDraftIfCleared(m, figureId, user.id);
     });
     return this.get(projectId, figureId);
   }
@@ -72,7 +97,7 @@ export class FiguresService {
   /** Renders, keeps the file under the figure, and returns it with its record. */
   async export(user: Express.User, projectId: string, figureId: string, body: ExportFigureBody): Promise<{ record: FigureExport; file: Buffer; name: string }> {
     const figure = await this.find(this.ds.manager, projectId, figureId);
-    const file = await renderFigure(this.ctx, this.ds.manager, projectId, { title: figure.title, ...figure.spec }, body);
+    const file = await renderFigure(this.ctx, this.ds.manager, projectId, specOf(figure), body);
     const exportId = randomUUID();
     const ext = body.format === 'png' ? 'png' : 'tif';
     const key = `projects/${projectId}/figures/${figureId}/exports/${exportId}.${ext}`;
@@ -97,6 +122,16 @@ export class FiguresService {
     const rows = await measurementsWithContext(this.ds.manager, projectId, [...new Set(figure.spec.panels.map((p) => p.imageId))]);
     const name = `${figure.title.replace(/[^\p{L}\p{N}._-]+/gu, '_').slice(0, 80)}_measurements.csv`;
     return { name, body: fieldsCsv((m) => m.image.specimen.code, rows) };
+  }
+
+  /** Review state of each figure that has one (the rest are drafts nobody submitted). */
+  private async reviewStates(m: EntityManager, projectId: string, figureIds: string[]): Promise<Map<string, ReviewState>> {
+    if (figureIds.length === 0) return new Map();
+    const rows: { subject_id: string; state: ReviewState }[] = await m.query(
+      `SELECT subject_id, state FROM review_states WHERE subject_type = 'figure' AND project_id = $1 AND subject_id = ANY($2::uuid[])`,
+      [projectId, figureIds],
+    );
+    return new Map(rows.map((r) => [r.subject_id, r.state]));
   }
 
   private async find(m: EntityManager, projectId: string, figureId: string): Promise<Figure> {

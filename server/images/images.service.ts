@@ -6,7 +6,7 @@ import { User } from '../auth/user.entity';
 import { CalibrationChange } from '../calibration/calibration-change.entity';
 import { recordActivity } from '../activity/record-activity';
 import { AppError } from '../http/app-error';
-import { returnToDraftIfCleared } from '../reviews/return-to-draft';
+import { returnFiguresShowingImage, returnToDraftIfCleared } from '../reviews/return-to-draft';
 import { Image } from './image.entity';
 import { imageKeys } from './image-keys';
 import { toImageRecord } from './image.mapper';
@@ -83,6 +83,7 @@ export class ImagesService {
   async remove(actor: Express.User, projectId: string, imageId: string): Promise<void> {
     const image = await this.find(projectId, imageId);
     await this.ds.transaction(async (m) => {
+      await returnFiguresShowingImage(m, imageId, actor.id, 'deleted');
       await m.delete(Image, { id: imageId });
       await recordActivity(m, { projectId, imageId, actorId: actor.id, action: 'image.deleted', summary: `deleted ${image.originalName}`, details: { sha256: image.sha256 } });
     });

@@ -67,7 +67,8 @@ interface MailRow {
   id: string;
   kind: MailableNotification['kind'];
   project_id: string;
-  image_id: string;
+  image_id: string | null;
+  figure_id: string | null;
   thread_id: string | null;
   facts: NotificationFacts;
   email: string;
@@ -82,7 +83,7 @@ interface MailRow {
  */
 export async function deliverMail(deps: NotificationDeps, data: MailJobData): Promise<void> {
   const rows: MailRow[] = await deps.dataSource.query(
-    `SELECT n.id, n.kind, n.project_id, n.image_id, n.thread_id, n.facts, u.email, u.display_name, u.active
+    `SELECT n.id, n.kind, n.project_id, n.image_id, n.figure_id, n.thread_id, n.facts, u.email, u.display_name, u.active
        FROM notifications n JOIN users u ON u.id = n.recipient_id
       WHERE n.id = ANY($1::uuid[]) AND n.status = 'mailing'
       ORDER BY n.created_at`,
@@ -95,7 +96,7 @@ export async function deliverMail(deps: NotificationDeps, data: MailJobData): Pr
     await deps.dataSource.query(`UPDATE notifications SET status = 'dropped' WHERE id = ANY($1::uuid[])`, [ids]);
     return;
   }
-  const items: MailableNotification[] = rows.map((r) => ({ kind: r.kind, projectId: r.project_id, imageId: r.image_id, threadId: r.thread_id, facts: r.facts }));
+  const items: MailableNotification[] = rows.map((r) => ({ kind: r.kind, projectId: r.project_id, imageId: r.image_id, figureId: r.figure_id, threadId: r.thread_id, facts: r.facts }));
   const publicUrl = deps.config.publicUrl;
   const mail = data.format === 'digest' ? composeDigest(items, recipient.display_name, publicUrl) : composeSingle(items[0]!, recipient.display_name, publicUrl);
   await deps.mailer.send({ to: recipient.email, ...mail });

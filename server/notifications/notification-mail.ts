@@ -5,7 +5,8 @@ import type { NotificationFacts } from './notification.entity';
 export interface MailableNotification {
   kind: NotificationKind;
   projectId: string;
-  imageId: string;
+  imageId: string | null;
+  figureId: string | null;
   threadId: string | null;
   facts: NotificationFacts;
 }
@@ -21,9 +22,15 @@ const DIGEST_LINES = 100;
 
 const SETTINGS_HINT = 'You can choose immediate e-mail, a daily digest or no e-mail in Etchfile under your notification settings.';
 
+/** What the notification is about, as a sentence names it: the image's file name, or "the figure “…”". */
+function subjectName(n: MailableNotification): string {
+  return n.figureId ? `the figure “${n.facts.figureTitle ?? ''}”` : (n.facts.imageName ?? 'an image');
+}
+
 /** One sentence saying what happened, as a subject line and a digest line read it. */
 function headline(n: MailableNotification): string {
-  const { actorName: who, imageName: image } = n.facts;
+  const { actorName: who } = n.facts;
+  const image = subjectName(n);
   switch (n.kind) {
     case 'review_requested':
       return `${who} submitted ${image} for review`;
@@ -36,7 +43,7 @@ function headline(n: MailableNotification): string {
     case 'reply':
       return `${who} replied in a thread on ${image}`;
     case 'returned_to_draft':
-      return `${image} is back to draft`;
+      return n.figureId ? `The figure “${n.facts.figureTitle ?? ''}” is back to draft` : `${image} is back to draft`;
   }
 }
 
@@ -54,17 +61,19 @@ function detail(n: MailableNotification): string {
     case 'changes_requested':
       return `Make the changes, then submit it again.${noted}`;
     case 'cleared':
-      return `What was cleared (pixel size, annotations and measurements) is kept as a snapshot.${noted}`;
+      return n.figureId
+        ? `The export rendered at clearing (PNG and TIFF) is kept unchanged and can be downloaded from the figure's page.${noted}`
+        : `What was cleared (pixel size, annotations and measurements) is kept as a snapshot.${noted}`;
     case 'returned_to_draft':
       return `It was cleared for publication; ${who} ${note ?? 'changed it'}, so it needs a new review before it is published.`;
   }
 }
 
 function link(publicUrl: string, n: MailableNotification): string {
-  return publicUrl.replace(/\/+$/, '') + notificationPath(n.projectId, n.imageId, n.threadId);
+  return publicUrl.replace(/\/+$/, '') + notificationPath(n.projectId, { imageId: n.imageId, figureId: n.figureId }, n.threadId);
 }
 
-/** One notification as its own message, linking to the image (and the thread's pin, when there is one). */
+/** One notification as its own message, linking to the image or figure (and the thread, when there is one). */
 export function composeSingle(n: MailableNotification, recipientName: string, publicUrl: string): ComposedMail {
   return {
     subject: `[${n.facts.projectCode}] ${headline(n)}`,

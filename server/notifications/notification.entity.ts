@@ -7,7 +7,10 @@ export type NotificationStatus = 'queued' | 'awaiting_digest' | 'mailing' | 'sen
 /** The facts of the moment a notification describes, kept so the mail reads the same whenever it goes. */
 export interface NotificationFacts {
   projectCode: string;
-  imageName: string;
+  /** For a notification about an image. */
+  imageName?: string;
+  /** For a notification about a figure. */
+  figureTitle?: string;
   actorName: string;
   /** A reviewer's note, or what changed after clearing. */
   note?: string;
@@ -30,8 +33,12 @@ export class Notification {
   @Column({ name: 'project_id', type: 'uuid' })
   projectId!: string;
 
-  @Column({ name: 'image_id', type: 'uuid' })
-  imageId!: string;
+  /** Exactly one of image and figure is set: what the notification is about. */
+  @Column({ name: 'image_id', type: 'uuid', nullable: true })
+  imageId!: string | null;
+
+  @Column({ name: 'figure_id', type: 'uuid', nullable: true })
+  figureId!: string | null;
 
   @Column({ name: 'thread_id', type: 'uuid', nullable: true })
   threadId!: string | null;

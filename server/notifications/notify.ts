@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { NotificationKind } from '../../shared/notifications';
+import type { ReviewSubject } from '../reviews/review-subject';
 import type { NotificationFacts } from './notification.entity';
 
 /** One event to tell people about. */
@@ -8,7 +9,8 @@ export interface NotifyInput {
   recipientIds: readonly string[];
   actorId: string;
   projectId: string;
-  imageId: string;
+  /** The image or figure it is about; the mail links there. */
+  subject: ReviewSubject;
   threadId?: string | null;
   facts: NotificationFacts;
 }
@@ -23,8 +25,8 @@ export async function notify(m: EntityManager, input: NotifyInput): Promise<stri
   const ids = [...new Set(input.recipientIds)].filter((id) => id !== input.actorId);
   if (ids.length === 0) return [];
   const rows: { recipient_id: string }[] = await m.query(
-    `INSERT INTO notifications (recipient_id, kind, project_id, image_id, thread_id, actor_id, facts, status)
-     SELECT u.id, $2, $3, $4, $5, $6, $7,
+    `INSERT INTO notifications (recipient_id, kind, project_id, image_id, figure_id, thread_id, actor_id, facts, status)
+     SELECT u.id, $2, $3, $4, $8, $5, $6, $7,
             CASE COALESCE(s.delivery, 'immediate') WHEN 'immediate' THEN 'queued' ELSE 'awaiting_digest' END
        FROM users u
        LEFT JOIN notification_settings s ON s.user_id = u.id
@@ -32,7 +34,16 @@ export async function notify(m: EntityManager, input: NotifyInput): Promise<stri
         AND COALESCE(s.delivery, 'immediate') <> 'off'
         AND (u.site_role = 'admin' OR EXISTS (SELECT 1 FROM project_memberships pm WHERE pm.project_id = $3 AND pm.user_id = u.id))
      RETURNING recipient_id`,
-    [ids, input.kind, input.projectId, input.imageId, input.threadId ?? null, input.actorId, JSON.stringify(input.facts)],
+    [
+      ids,
+      input.kind,
+      input.projectId,
+      input.subject.type === 'image' ? input.subject.id : null,
+      input.threadId ?? null,
+      input.actorId,
+      JSON.stringify(input.facts),
+      input.subject.type === 'figure' ? input.subject.id : null,
+    ],
   );
   return rows.map((r) => r.recipient_id);
 }
@@ -45,6 +56,21 @@ export async function imageFacts(m: EntityManager, imageId: string, actorId: str
     [imageId, actorId],
   );
   return { projectCode: row?.project_code ?? '', imageName: row?.original_name ?? 'an image', actorName: row?.actor_name ?? 'Someone' };
+}
+
+/** The names a message about this figure needs, read in the same transaction. */
+export async function figureFacts(m: EntityManager, figureId: string, actorId: string): Promise<NotificationFacts> {
+  const [row] = await m.query(
+    `SELECT p.code AS project_code, f.title, (SELECT display_name FROM users WHERE id = $2) AS actor_name
+       FROM figures f JOIN projects p ON p.id = f.project_id WHERE f.id = $1`,
+    [figureId, actorId],
+  );
+  return { projectCode: row?.project_code ?? '', figureTitle: row?.title ?? 'a figure', actorName: row?.actor_name ?? 'Someone' };
+}
+
+/** The names a message about `subject` needs. */
+export function subjectFacts(m: EntityManager, subject: ReviewSubject, actorId: string): Promise<NotificationFacts> {
+  return subject.type === 'image' ? imageFacts(m, subject.id, actorId) : figureFacts(m, subject.id, actorId);
 }
 
 /** The start of a comment for a message: first 200 characters, on one line. */

@@ -3,7 +3,7 @@ import type { ThreadAnchor, ThreadStatus } from '../../shared/reviews';
 import { User } from '../auth/user.entity';
 import { Comment } from './comment.entity';
 
-/** A discussion pinned to a point, a region or a measurement of an image. */
+/** A discussion pinned to a point, a region or a measurement of an image, or to a figure or one of its panels. */
 @Entity({ name: 'comment_threads' })
 export class CommentThread {
   @PrimaryGeneratedColumn('uuid')
@@ -12,8 +12,12 @@ export class CommentThread {
   @Column({ name: 'project_id', type: 'uuid' })
   projectId!: string;
 
-  @Column({ name: 'image_id', type: 'uuid' })
-  imageId!: string;
+  /** Exactly one of image and figure is set. */
+  @Column({ name: 'image_id', type: 'uuid', nullable: true })
+  imageId!: string | null;
+
+  @Column({ name: 'figure_id', type: 'uuid', nullable: true })
+  figureId!: string | null;
 
   @Column({ name: 'anchor_kind', type: 'text' })
   anchorKind!: ThreadAnchor['kind'];

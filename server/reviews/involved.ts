@@ -1,15 +1,16 @@
 import type { EntityManager } from 'typeorm';
+import { subjectColumn, type ReviewSubject } from './review-subject';
 
 /**
- * Everyone involved in an image's review: whoever submitted it, the reviewers who asked for changes
- * or cleared it, and everyone who wrote in or was mentioned in one of its threads.
+ * Everyone involved in the review of an image or a figure: whoever submitted it, the reviewers who
+ * asked for changes or cleared it, and everyone who wrote in or was mentioned in one of its threads.
  */
-export async function involvedInReview(m: EntityManager, imageId: string): Promise<string[]> {
+export async function involvedInReview(m: EntityManager, subject: ReviewSubject): Promise<string[]> {
   const rows: { id: string }[] = await m.query(
-    `SELECT submitted_by AS id FROM review_states WHERE subject_type = 'image' AND subject_id = $1 AND submitted_by IS NOT NULL
-     UNION SELECT actor_id FROM review_events WHERE subject_type = 'image' AND subject_id = $1 AND reason IN ('requestChanges', 'clear')
-     UNION SELECT ${participantsOf('t.image_id = $1')}`,
-    [imageId],
+    `SELECT submitted_by AS id FROM review_states WHERE subject_type = $2 AND subject_id = $1 AND submitted_by IS NOT NULL
+     UNION SELECT actor_id FROM review_events WHERE subject_type = $2 AND subject_id = $1 AND reason IN ('requestChanges', 'clear')
+     UNION SELECT ${participantsOf(`t.${subjectColumn(subject)} = $1`)}`,
+    [subject.id, subject.type],
   );
   return rows.map((r) => r.id);
 }

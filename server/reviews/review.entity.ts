@@ -2,7 +2,7 @@ import { Column, Entity, JoinColumn, ManyToOne, PrimaryColumn, type Relation } f
 import type { ReviewState, ReviewSubjectType } from '../../shared/reviews';
 import { User } from '../auth/user.entity';
 
-/** Where one image (or later figure) stands in review. No row means a draft nobody has submitted. */
+/** Where one image or figure stands in review. No row means a draft nobody has submitted. */
 @Entity({ name: 'review_states' })
 export class Review {
   @PrimaryColumn({ name: 'subject_type', type: 'text' })
@@ -17,6 +17,10 @@ export class Review {
   /** Set for images only, so deleting the image deletes its state. */
   @Column({ name: 'image_id', type: 'uuid', nullable: true })
   imageId!: string | null;
+
+  /** Set for figures only, so deleting the figure deletes its state. */
+  @Column({ name: 'figure_id', type: 'uuid', nullable: true })
+  figureId!: string | null;
 
   @Column({ type: 'text' })
   state!: ReviewState;

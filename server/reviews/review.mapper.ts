@@ -52,6 +52,7 @@ export function toThreadDto(t: CommentThread, names: ReadonlyMap<string, string>
     id: t.id,
     projectId: t.projectId,
     imageId: t.imageId,
+    figureId: t.figureId,
     anchor: t.anchor,
     anchorPresent,
     status: t.status,

@@ -5,6 +5,7 @@ const item = (n: number, projectCode = 'KV-LAM-24'): MailableNotification => ({
   kind: 'review_requested',
   projectId: 'p1',
   imageId: `image-${n}`,
+  figureId: null,
   threadId: null,
   facts: { projectCode, imageName: `ARB-${n}-P1-L_050x.tif`, actorName: 'Joaquim Veldterra' },
 });

@@ -45,14 +45,14 @@ describe('reviews: the reviewer’s queue', () => {
   });
   after(() => app.close());
 
-  const ids = (body: { items: { imageId: string }[] }) => body.items.map((i) => Object.keys(images).find((k) => images[k] === i.imageId));
+  const ids = (body: { items: { subjectId: string }[] }) => body.items.map((i) => Object.keys(images).find((k) => images[k] === i.subjectId));
 
   it('when a reviewer opens the queue, then it lists what waits for them in every project they review, oldest submission first', async () => {
     const res = await reviewer.get('/api/review-queue');
     expect(res.status).to.equal(200);
     expect(ids(res.body)).to.deep.equal(['a', 'b', 'c']);
     expect(res.body).to.include({ total: 3, page: 0, pageSize: 20 });
-    expect(res.body.items[0]).to.deep.include({ projectId: projects.p1, modality: 'sem_secondary', imageName: 'fixture.tif', openThreads: 0, submittedBy: { id: submitters.one.id, name: submitters.one.displayName } });
+    expect(res.body.items[0]).to.deep.include({ projectId: projects.p1, modality: 'sem_secondary', subjectType: 'image', name: 'fixture.tif', openThreads: 0, submittedBy: { id: submitters.one.id, name: submitters.one.displayName } });
     expect(res.body.items[0].specimenCode).to.match(/^SP-/);
   });
 
@@ -81,7 +81,7 @@ describe('reviews: the reviewer’s queue', () => {
     const [x, y] = [await submitted(projects.p2, submitters.two, 'other'), await submitted(projects.p2, submitters.two, 'other')];
     await move(reviewer, { projectId: projects.p2 }, x, 'request-changes', 'Add the scale bar.');
     const queue = (await reviewer.get(`/api/review-queue?projectId=${projects.p2}`)).body;
-    expect(queue.items.map((i: { imageId: string }) => i.imageId)).to.deep.equal([images['b'], y]);
+    expect(queue.items.map((i: { subjectId: string }) => i.subjectId)).to.deep.equal([images['b'], y]);
   });
 
   for (const [title, query, field] of [
