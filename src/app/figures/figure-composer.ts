@@ -1,5 +1,5 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, viewChild } from '@angular/core';
 import { MatAnchor, MatButton } from '@angular/material/button';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { MatDialog } from '@angular/material/dialog';
@@ -19,6 +19,10 @@ import { apiErrorMessage } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
 import { ProjectApi } from '../projects/project-api';
+import type { Mentionable } from '../reviews/comment-box';
+import { ReviewPanel } from '../reviews/review-panel';
+import { reviewStateLabel } from '../reviews/review-text';
+import { ThreadList } from '../reviews/thread-list';
 import { FigureApi } from './figure-api';
 import { blankFigure, blankPanel, figureBodyOf, type PanelDraft } from './figure-draft';
 import { barLengthsUm, moveItem, relabel, sortProblems, wholeImage, type SortedProblems } from './figure-geometry';
@@ -28,7 +32,7 @@ import { PanelEditor } from './panel-editor';
 
 const NO_PROBLEMS: SortedProblems = { panels: {}, figure: {} };
 
-/** Composes one figure (new or saved): its layout, its panels, a live preview, save and export. */
+/** Composes one figure (new or saved): its layout, its panels, a live preview, save and export; its review and threads. */
 @Component({
   selector: 'ef-figure-composer',
   imports: [
@@ -45,7 +49,9 @@ const NO_PROBLEMS: SortedProblems = { panels: {}, figure: {} };
     MatLabel,
     MatProgressBar,
     PanelEditor,
+    ReviewPanel,
     RouterLink,
+    ThreadList,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './figure-composer.html',
@@ -62,6 +68,10 @@ export default class FigureComposer {
   readonly projectId = input.required<string>();
   /** Absent on /figures/new. */
   readonly figureId = input<string>();
+  /** Query parameter: a thread to show (notification links carry it). */
+  readonly thread = input<string | undefined>();
+
+  protected readonly reviewPanel = viewChild(ReviewPanel);
 
   protected readonly project = remote(() => this.projectId(), (id) => this.projects.get(id));
   protected readonly classes = remote(() => this.projectId(), (id) => this.figures.annotationClasses(id));
@@ -80,13 +90,24 @@ export default class FigureComposer {
   protected readonly saveMessage = signal<string | null>(null);
   protected readonly savedNote = signal<string | null>(null);
   protected readonly problems = signal<SortedProblems>(NO_PROBLEMS);
-  protected readonly widthMm = signal(170);
-  protected readonly dpi = signal(300);
   private nextKey = 2;
 
   protected readonly canCompose = computed(() => this.project.value()?.allowed.includes('editMetadata') ?? false);
   protected readonly canDelete = computed(() => (this.project.value()?.allowed.includes('delete') ?? false) && !!this.figureId());
   protected readonly isNew = computed(() => !this.figureId());
+  protected readonly canComment = computed(() => this.project.value()?.allowed.includes('comment') ?? false);
+  protected readonly members = computed<Mentionable[]>(() =>
+    (this.project.value()?.members ?? []).map((m) => ({ id: m.userId, name: m.displayName, email: m.email })),
+  );
+  /** Letters of the saved figure's panels: threads pin to a saved panel's place. */
+  protected readonly savedLetters = computed(() => (this.figure.value()?.panels ?? []).map((p) => p.letter));
+  protected readonly stateLabel = computed(() => {
+    const figure = this.figure.value();
+    return figure ? reviewStateLabel(figure.reviewState) : null;
+  });
+  /** Reviewers see the saved figure: no move while the screen shows edits that are not saved. */
+  protected readonly holdMoves = computed(() => (this.dirty() && this.canCompose() ? 'Save the figure before a review step: reviewers see the saved version.' : ''));
+  protected readonly unsavedExport = computed(() => this.isNew() || (this.dirty() && this.canCompose()));
   protected readonly spec = computed<FigureSpec>(() => ({ ...this.head(), panels: this.panels().map((p) => p.spec) }));
   protected readonly keys = computed(() => this.panels().map((p) => p.key));
   protected readonly barLengths = computed(() => {
@@ -182,8 +203,15 @@ export default class FigureComposer {
           void this.router.navigate(['/projects', this.projectId(), 'figures', saved.id], { replaceUrl: true });
           return;
         }
+        const wasCleared = this.figure.value()?.reviewState === 'cleared';
         this.figure.set(saved);
-        this.savedNote.set(`Saved as version ${saved.version}.`);
+        this.savedNote.set(
+          wasCleared && saved.reviewState === 'draft'
+            ? `Saved as version ${saved.version}. The figure was cleared; it is a draft again, and the cleared export stays below.`
+            : `Saved as version ${saved.version}.`,
+        );
+        // An edit returns a cleared figure to draft: show the review as it stands now.
+        this.reviewPanel()?.refresh();
       },
       error: (error: unknown) => this.showSaveFailure(error),
     });
@@ -206,6 +234,12 @@ export default class FigureComposer {
         error: (error: unknown) => this.saveMessage.set(messageOf(error)),
       });
     });
+  }
+
+  /** A review move changed the state: the badge in the header follows. */
+  protected showMoved(state: Figure['reviewState']): void {
+    const figure = this.figure.value();
+    if (figure) this.figure.set({ ...figure, reviewState: state });
   }
 
   protected problemsOf(index: number): string[] {
@@ -235,8 +269,8 @@ export default class FigureComposer {
   }
 
   private applyFigure(figure: Figure): void {
-    const { title, columns, gapMm, commonScaleBar, panels } = figure;
-    this.head.set({ title, columns, gapMm, commonScaleBar });
+    const { title, columns, gapMm, commonScaleBar, widthMm, dpi, panels } = figure;
+    this.head.set({ title, columns, gapMm, commonScaleBar, widthMm, dpi });
     this.panels.set(panels.map((spec) => ({ key: this.nextKey++, spec })));
     this.version.set(figure.version);
     this.dirty.set(false);

@@ -1,4 +1,4 @@
-import type { FigureBody, FigureSpec, PanelSpec } from '../../../shared/figures';
+import { DEFAULT_PRINT, type FigureBody, type FigureSpec, type PanelSpec } from '../../../shared/figures';
 import { defaultLetter } from './figure-geometry';
 
 /** A panel being edited, with a key that survives reordering (for `track`). */
@@ -19,9 +19,9 @@ export function blankPanel(index: number): PanelSpec {
   };
 }
 
-/** A new figure: two columns, a 1.5 mm gap, one common bar, one empty panel. */
+/** A new figure: two columns, a 1.5 mm gap, one common bar, a full page at 300 dpi, one empty panel. */
 export function blankFigure(): Omit<FigureSpec, 'panels'> {
-  return { title: '', columns: 2, gapMm: 1.5, commonScaleBar: true };
+  return { title: '', columns: 2, gapMm: 1.5, commonScaleBar: true, ...DEFAULT_PRINT };
 }
 
 /** The request body from the edited values. Pure. */

@@ -8,9 +8,11 @@ import { RouterLink } from '@angular/router';
 import { remote } from '../core/remote';
 import { Breadcrumbs, type Crumb } from '../archive/breadcrumbs';
 import { ProjectApi } from '../projects/project-api';
+import type { ReviewState } from '../../../shared/reviews';
+import { reviewStateLabel } from '../reviews/review-text';
 import { FigureApi } from './figure-api';
 
-/** The project's saved figures, newest change first, and the way to compose a new one. */
+/** The project's saved figures, newest change first, with where each stands in review; and the way to compose a new one. */
 @Component({
   selector: 'ef-figure-list',
   imports: [Breadcrumbs, DatePipe, MatAnchor, MatButton, MatIcon, MatProgressBar, RouterLink],
@@ -38,4 +40,8 @@ export default class FigureList {
     const p = this.project.value();
     if (p) this.title.setTitle(`Figures · ${p.code} · Etchfile`);
   });
+
+  protected stateLabel(state: ReviewState): string {
+    return reviewStateLabel(state);
+  }
 }

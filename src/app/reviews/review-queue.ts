@@ -21,6 +21,7 @@ import {
 } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { MODALITIES, MODALITY_LABELS, type Modality } from '../../../shared/images';
+import type { ReviewSubjectType } from '../../../shared/reviews';
 import { remote } from '../core/remote';
 import { ProjectApi } from '../projects/project-api';
 import { ReviewApi } from './review-api';
@@ -28,7 +29,7 @@ import { countOf } from './review-text';
 
 const PAGE_SIZES = [20, 50, 100];
 
-/** Images waiting for the signed-in reviewer, oldest submission first, across their projects. */
+/** Images and figures waiting for the signed-in reviewer, oldest submission first, across their projects. */
 @Component({
   selector: 'ef-review-queue',
   imports: [
@@ -61,11 +62,12 @@ export default class ReviewQueue {
   private readonly api = inject(ReviewApi);
   private readonly projectApi = inject(ProjectApi);
 
-  protected readonly columns = ['submittedAt', 'image', 'project', 'modality', 'submittedBy', 'openThreads'];
+  protected readonly columns = ['submittedAt', 'item', 'project', 'modality', 'submittedBy', 'openThreads'];
   protected readonly pageSizes = PAGE_SIZES;
   protected readonly modalities = MODALITIES.map((m) => ({ value: m, label: MODALITY_LABELS[m] }));
   protected readonly projectId = signal('');
   protected readonly modality = signal<Modality | ''>('');
+  protected readonly subjectType = signal<ReviewSubjectType | ''>('');
   protected readonly pageIndex = signal(0);
   protected readonly pageSize = signal(PAGE_SIZES[0]);
 
@@ -74,6 +76,7 @@ export default class ReviewQueue {
     pageSize: this.pageSize(),
     projectId: this.projectId() || undefined,
     modality: this.modality() || undefined,
+    subjectType: this.subjectType() || undefined,
   }));
   protected readonly queue = remote(this.query, (q) => this.api.queue(q));
   /** Only projects where the caller reviews can be chosen (the server refuses the others). */
@@ -85,13 +88,16 @@ export default class ReviewQueue {
   protected readonly rows = computed(() =>
     (this.queue.value()?.items ?? []).map((item) => ({
       ...item,
-      modalityLabel: MODALITY_LABELS[item.modality],
+      link: ['/projects', item.projectId, item.subjectType === 'image' ? 'images' : 'figures', item.subjectId],
+      kindLabel: item.subjectType === 'image' ? 'Image' : 'Figure',
+      sub: item.subjectType === 'image' ? (item.specimenCode ?? '') : countOf(item.panelCount ?? 0, 'panel'),
+      modalityLabel: item.modality ? MODALITY_LABELS[item.modality] : '—',
       threadsText: countOf(item.openThreads, 'open thread'),
     })),
   );
   protected readonly total = computed(() => this.queue.value()?.total ?? 0);
   protected readonly isEmpty = computed(() => !this.queue.loading() && !this.queue.error() && this.rows().length === 0);
-  protected readonly filtered = computed(() => this.projectId() !== '' || this.modality() !== '');
+  protected readonly filtered = computed(() => this.projectId() !== '' || this.modality() !== '' || this.subjectType() !== '');
 
   protected chooseProject(id: string): void {
     this.projectId.set(id);
@@ -103,9 +109,15 @@ export default class ReviewQueue {
     this.pageIndex.set(0);
   }
 
+  protected chooseSubjectType(type: ReviewSubjectType | ''): void {
+    this.subjectType.set(type);
+    this.pageIndex.set(0);
+  }
+
   protected clearFilters(): void {
     this.projectId.set('');
     this.modality.set('');
+    this.subjectType.set('');
     this.pageIndex.set(0);
   }
 

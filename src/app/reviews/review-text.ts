@@ -19,7 +19,7 @@ export function reviewStateLabel(state: ReviewState): string {
 }
 
 /** One sentence under the badge: what the state means for the people looking at it. */
-export function reviewStateHint(state: ReviewState): string {
+export function reviewStateHint(state: ReviewState, subject: 'image' | 'figure' = 'image'): string {
   switch (state) {
     case 'draft':
       return 'Not yet handed to the reviewers; edits are free.';
@@ -28,7 +28,9 @@ export function reviewStateHint(state: ReviewState): string {
     case 'needs_changes':
       return 'A reviewer asked for changes; submit again once they are made.';
     case 'cleared':
-      return 'Fit to publish as it stands. Any edit puts it back to draft.';
+      return subject === 'figure'
+        ? 'Fit to publish as it stands. Any edit of the figure, or of the annotations or pixel size of a panel image, puts it back to draft; the cleared export stays below.'
+        : 'Fit to publish as it stands. Any edit puts it back to draft.';
   }
 }
 
@@ -50,9 +52,10 @@ function pixel(value: number): string {
 
 /**
  * Where a thread is pinned, in words: "point at 812, 440 px", "region of 5 points around 300, 210 px",
- * "measurement". `present` false adds that the measurement is gone.
+ * "measurement"; on a figure "whole figure" or "panel b" (`panelLetters` gives the figure's letters,
+ * a panel without one is named by its place). `present` false adds that the measurement is gone.
  */
-export function describeAnchor(anchor: ThreadAnchor, present = true): string {
+export function describeAnchor(anchor: ThreadAnchor, present = true, panelLetters: readonly string[] = []): string {
   switch (anchor.kind) {
     case 'point':
       return `point at ${pixel(anchor.at[0])}, ${pixel(anchor.at[1])} px`;
@@ -64,7 +67,17 @@ export function describeAnchor(anchor: ThreadAnchor, present = true): string {
     }
     case 'measurement':
       return present ? 'measurement' : 'measurement (since deleted)';
+    case 'figure':
+      return 'whole figure';
+    case 'panel':
+      return panelName(anchor.panel, panelLetters);
   }
+}
+
+/** "panel b" for the second panel lettered b; "panel 2" when it has no letter or no longer exists. */
+export function panelName(index: number, panelLetters: readonly string[]): string {
+  const letter = panelLetters[index]?.trim();
+  return `panel ${letter || index + 1}`;
 }
 
 /** The centre of an image of `width` × `height` px, as a point anchor. */
@@ -119,7 +132,13 @@ export function snapshotCounts(snapshot: Pick<ReviewSnapshot, 'annotations' | 'm
 }
 
 /** Why clearing will be refused now, or '' when nothing stands in the way. */
-export function clearingBlocker(openThreads: number): string {
+export function clearingBlocker(openThreads: number, subject: 'image' | 'figure' = 'image'): string {
   if (openThreads <= 0) return '';
-  return `${countOf(openThreads, 'open thread')} on this image; resolve ${openThreads === 1 ? 'it' : 'them'} before clearing.`;
+  return `${countOf(openThreads, 'open thread')} on this ${subject}; resolve ${openThreads === 1 ? 'it' : 'them'} before clearing.`;
+}
+
+/** "PNG, 2008 × 1004 px, 170 mm at 300 dpi, 1.2 MB": one kept file, as the cleared list shows it. */
+export function clearedFileLine(file: { format: 'png' | 'tiff'; width: number; height: number; widthMm: number; dpi: number; byteSize: number }): string {
+  const size = file.byteSize >= 1_000_000 ? `${(file.byteSize / 1_000_000).toFixed(1)} MB` : `${Math.max(1, Math.round(file.byteSize / 1000))} kB`;
+  return `${file.format === 'png' ? 'PNG' : 'TIFF'}, ${file.width} × ${file.height} px, ${file.widthMm} mm at ${file.dpi} dpi, ${size}`;
 }

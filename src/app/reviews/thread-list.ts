@@ -13,12 +13,15 @@ import { apiErrorMessage, type ApiErrorMessage } from '../core/api-error-message
 import { remote } from '../core/remote';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
 import { CommentBox, type Mentionable } from './comment-box';
-import { ReviewApi } from './review-api';
+import { ReviewApi, type ReviewTarget } from './review-api';
 import { centreAnchor, countOf, describeAnchor, typedPoint } from './review-text';
 
 type Filter = ThreadStatus | 'all';
 
-/** Comment threads on one image: filter, read, reply with @mentions, resolve or reopen, start a new one. */
+/**
+ * Comment threads on one image or one figure: filter, read, reply with @mentions, resolve or reopen,
+ * start a new one (on an image pinned to its centre or a typed point; on a figure to the whole or a panel).
+ */
 @Component({
   selector: 'ef-thread-list',
   imports: [
@@ -48,9 +51,13 @@ export class ThreadList {
   private readonly document = inject(DOCUMENT);
 
   readonly projectId = input.required<string>();
-  readonly imageId = input.required<string>();
-  readonly imageWidth = input.required<number>();
-  readonly imageHeight = input.required<number>();
+  /** Give one of imageId and figureId. */
+  readonly imageId = input<string | null>(null);
+  readonly figureId = input<string | null>(null);
+  readonly imageWidth = input(0);
+  readonly imageHeight = input(0);
+  /** A figure's panel letters in panel order, to pin a thread to one panel and to name it. */
+  readonly panelLetters = input<readonly string[]>([]);
   readonly members = input<readonly Mentionable[]>([]);
   readonly canComment = input(false);
   /** A thread to bring into view once loaded (from a notification link, ?thread=…). */
@@ -62,12 +69,18 @@ export class ThreadList {
 
   /** Open threads first; all of them when a link points at one, which may be resolved by now. */
   protected readonly filter = linkedSignal<Filter>(() => (this.focusThread() ? 'all' : 'open'));
-  private readonly query = computed(() => ({ projectId: this.projectId(), imageId: this.imageId(), status: this.filter() }));
-  protected readonly threads = remote(this.query, ({ projectId, imageId, status }) => this.api.threads(projectId, imageId, status));
+  private readonly target = computed<ReviewTarget>(() => {
+    const figureId = this.figureId();
+    return figureId ? { type: 'figure', id: figureId } : { type: 'image', id: this.imageId() ?? '' };
+  });
+  protected readonly onFigure = computed(() => this.target().type === 'figure');
+  protected readonly panelChoices = computed(() => this.panelLetters().map((_, index) => ({ index, label: describeAnchor({ kind: 'panel', panel: index }, true, this.panelLetters()) })));
+  private readonly query = computed(() => ({ projectId: this.projectId(), target: this.target(), status: this.filter() }));
+  protected readonly threads = remote(this.query, ({ projectId, target, status }) => this.api.threads(projectId, target, status));
   protected readonly rows = computed(() =>
     (this.threads.value() ?? []).map((t) => ({
       thread: t,
-      anchorText: describeAnchor(t.anchor, t.anchorPresent),
+      anchorText: describeAnchor(t.anchor, t.anchorPresent, this.panelLetters()),
       opening: t.comments[0] ?? null,
       replies: t.comments.slice(1),
       replyCount: countOf(t.comments.length - 1, 'reply', 'replies'),
@@ -76,17 +89,18 @@ export class ThreadList {
   protected readonly emptyText = computed(() => {
     switch (this.filter()) {
       case 'open':
-        return 'No open threads on this image.';
+        return `No open threads on this ${this.target().type}.`;
       case 'resolved':
         return 'No resolved threads yet.';
       default:
-        return 'Nobody has commented on this image yet.';
+        return `Nobody has commented on this ${this.target().type} yet.`;
     }
   });
 
   protected readonly composing = signal(false);
   protected readonly anchorForm = new FormGroup({
-    pin: new FormControl<'centre' | 'point'>('centre', { nonNullable: true }),
+    pin: new FormControl<'centre' | 'point' | 'figure' | 'panel'>('centre', { nonNullable: true }),
+    panel: new FormControl<number>(0, { nonNullable: true }),
     x: new FormControl<number | null>(null),
     y: new FormControl<number | null>(null),
   });
@@ -116,6 +130,7 @@ export class ThreadList {
   }
 
   protected startThread(): void {
+    if (!this.composing()) this.anchorForm.controls.pin.setValue(this.onFigure() ? 'figure' : 'centre');
     this.composing.set(true);
     this.newError.set('');
   }
@@ -133,7 +148,7 @@ export class ThreadList {
     if (!box || !draft || !anchor || this.busyThread()) return;
     this.busyThread.set('new');
     this.newError.set('');
-    this.api.openThread(this.projectId(), this.imageId(), { anchor, ...draft }).subscribe({
+    this.api.openThread(this.projectId(), this.target(), { anchor, ...draft }).subscribe({
       next: () => {
         this.busyThread.set(null);
         this.cancelThread();
@@ -153,7 +168,7 @@ export class ThreadList {
     if (!draft || this.busyThread()) return;
     this.busyThread.set(thread.id);
     this.setThreadError(thread.id, '');
-    this.api.reply(this.projectId(), this.imageId(), thread.id, draft).subscribe({
+    this.api.reply(this.projectId(), this.target(), thread.id, draft).subscribe({
       next: (saved) => {
         this.busyThread.set(null);
         box.clear();
@@ -171,7 +186,7 @@ export class ThreadList {
     this.busyThread.set(thread.id);
     this.setThreadError(thread.id, '');
     const call = to === 'resolved' ? this.api.resolve : this.api.reopenThread;
-    call.call(this.api, this.projectId(), this.imageId(), thread.id).subscribe({
+    call.call(this.api, this.projectId(), this.target(), thread.id).subscribe({
       next: () => {
         this.busyThread.set(null);
         // It leaves the filtered list (open ↔ resolved), so load the list again.
@@ -187,7 +202,9 @@ export class ThreadList {
 
   /** The anchor from the form, or null with the problem shown beside the coordinates. */
   private chosenAnchor(): ThreadAnchor | null {
-    const { pin, x, y } = this.anchorForm.getRawValue();
+    const { pin, x, y, panel } = this.anchorForm.getRawValue();
+    if (pin === 'figure') return { kind: 'figure' };
+    if (pin === 'panel') return { kind: 'panel', panel };
     if (pin === 'centre') return centreAnchor(this.imageWidth(), this.imageHeight());
     const result = typedPoint(x, y, this.imageWidth(), this.imageHeight());
     if ('kind' in result) return result;
@@ -207,7 +224,7 @@ export class ThreadList {
     for (const [key, message] of Object.entries(failure.fieldErrors)) {
       if (key === 'body' || key === 'mentions') {
         box.showError(message);
-      } else if (key === 'anchor' || key === 'at' || key === 'kind') {
+      } else if (key === 'anchor' || key === 'at' || key === 'kind' || key === 'panel') {
         this.anchorForm.controls.x.setErrors({ server: message });
         this.anchorForm.controls.x.markAsTouched();
       } else {

@@ -17,7 +17,7 @@ import {
 describe('client: review text, states and moves', () => {
   it('gives every state its own badge text and hint', () => {
     const labels = REVIEW_STATES.map(reviewStateLabel);
-    const hints = REVIEW_STATES.map(reviewStateHint);
+    const hints = REVIEW_STATES.map((s) => reviewStateHint(s));
 
     expect(new Set(labels).size).to.equal(REVIEW_STATES.length);
     expect(new Set(hints).size).to.equal(REVIEW_STATES.length);
