@@ -1,5 +1,6 @@
 import type Konva from 'konva';
 import type { AnnotationKind, Coordinates } from '../../../shared/annotations/annotations';
+import { PIN_RADIUS_PX, type ViewPin } from './review-pins';
 import { edgeMidpoints } from './shape-edits';
 import { drawShape } from './shape-layer';
 
@@ -17,6 +18,9 @@ export interface OverlayShape {
 
 const HANDLE_PX = 7;
 const MIDPOINT_RADIUS_PX = 3.5;
+const PIN_OPEN = '#e0892b';
+const PIN_RESOLVED = '#8d969e';
+const PIN_FONT = '600 11px "IBM Plex Mono", ui-monospace, monospace';
 const CALIBRATION_COLOUR = '#ffd23f';
 
 /**
@@ -30,6 +34,8 @@ export class OverlayLayer {
   private handles = false;
   private draft: OverlayShape | null = null;
   private calibrationLine: Coordinates | null = null;
+  private pins: readonly ViewPin[] = [];
+  private focusedPin: string | null = null;
   private scale = 1;
 
   constructor(K: KonvaModule) {
@@ -50,6 +56,12 @@ export class OverlayLayer {
     this.draft = shape;
   }
 
+  /** Comment pins, numbered; the focused one ringed. */
+  setPins(pins: readonly ViewPin[], focused: string | null): void {
+    this.pins = pins;
+    this.focusedPin = focused;
+  }
+
   /** The calibrate tool's line (drawn apart from annotations, in a colour no class uses). */
   setCalibrationLine(points: Coordinates | null): void {
     this.calibrationLine = points;
@@ -61,6 +73,7 @@ export class OverlayLayer {
 
   private draw(c: CanvasRenderingContext2D): void {
     const pr = this.layer.getCanvas().getPixelRatio();
+    if (this.pins.length > 0) this.drawPins(c, pr);
     if (this.selection) {
       const s = this.selection;
       drawShape(c, pr, this.scale, s.kind, s.points, s.label, s.colour, { label: s.measurement, pending: false, width: 3 });
@@ -75,6 +88,47 @@ export class OverlayLayer {
       const kind = d.kind === 'polygon' ? 'polyline' : d.kind;
       drawShape(c, pr, this.scale, kind, d.points, d.label, d.colour, { label: d.measurement, pending: true, width: 2 });
     }
+  }
+
+  /**
+   * Comment pins: a region's outline dashed, then every marker as a numbered disc in screen
+   * pixels (amber while open, grey once resolved), the focused one with a white ring.
+   */
+  private drawPins(c: CanvasRenderingContext2D, pr: number): void {
+    const m = c.getTransform();
+    for (const pin of this.pins) {
+      if (!pin.ring) continue;
+      c.beginPath();
+      pin.ring.forEach(([x, y], i) => (i === 0 ? c.moveTo(x, y) : c.lineTo(x, y)));
+      c.closePath();
+      c.save();
+      c.setTransform(pr, 0, 0, pr, 0, 0);
+      c.setLineDash([5, 4]);
+      c.lineWidth = pin.threadId === this.focusedPin ? 2.5 : 1.5;
+      c.strokeStyle = pin.open ? PIN_OPEN : PIN_RESOLVED;
+      c.stroke();
+      c.restore();
+    }
+    c.save();
+    c.setTransform(pr, 0, 0, pr, 0, 0);
+    c.font = PIN_FONT;
+    c.textAlign = 'center';
+    c.textBaseline = 'middle';
+    for (const pin of this.pins) {
+      const [x, y] = pin.at;
+      const sx = (m.a * x + m.c * y + m.e) / pr;
+      const sy = (m.b * x + m.d * y + m.f) / pr;
+      c.beginPath();
+      c.arc(sx, sy, PIN_RADIUS_PX, 0, Math.PI * 2);
+      c.fillStyle = pin.open ? PIN_OPEN : PIN_RESOLVED;
+      c.fill();
+      c.lineWidth = pin.threadId === this.focusedPin ? 3 : 1.5;
+      c.strokeStyle = pin.threadId === this.focusedPin ? '#ffffff' : '#101418';
+      c.stroke();
+      c.fillStyle = '#1b1208';
+      c.fillText(String(pin.number), sx, sy + 0.5);
+    }
+    c.restore();
   }
 
   /**

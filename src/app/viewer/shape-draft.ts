@@ -8,10 +8,10 @@ import { appendIfApart, FREEHAND_MIN_SPACING_PX, FREEHAND_TOLERANCE_PX, freehand
  * same on screen at any zoom. Pure: the canvas only forwards events and draws `preview()`.
  */
 
-export const DRAW_TOOLS = ['polyline', 'polygon', 'freehand', 'rectangle', 'point', 'ruler', 'angle', 'text', 'calibrate'] as const;
+export const DRAW_TOOLS = ['polyline', 'polygon', 'freehand', 'rectangle', 'point', 'ruler', 'angle', 'text', 'calibrate', 'pin'] as const;
 export type DrawTool = (typeof DRAW_TOOLS)[number];
 
-/** The stored kind each tool makes; the calibration line is not an annotation. */
+/** The stored kind each tool makes; the calibration line and a comment pin are not annotations. */
 export const KIND_OF_TOOL: Record<DrawTool, AnnotationKind | null> = {
   polyline: 'polyline',
   polygon: 'polygon',
@@ -22,10 +22,11 @@ export const KIND_OF_TOOL: Record<DrawTool, AnnotationKind | null> = {
   angle: 'angle',
   text: 'text',
   calibrate: null,
+  pin: null,
 };
 
 /** Tools whose shape follows a drag; the others place points by clicks, and a drag pans. */
-export const DRAG_TOOLS: ReadonlySet<DrawTool> = new Set(['freehand', 'rectangle', 'ruler', 'calibrate']);
+export const DRAG_TOOLS: ReadonlySet<DrawTool> = new Set(['freehand', 'rectangle', 'ruler', 'calibrate', 'pin']);
 
 /** Screen pixels: a click that closes an outline on its first point, and a move still counted as a click. */
 export const CLOSE_RADIUS_PX = 8;
@@ -112,6 +113,9 @@ export class ShapeDraft {
     }
     const anchor = this.anchor;
     if (!anchor) return null;
+    // A comment pin: a click pins a point, a drag a box-shaped region.
+    if (this.tool === 'pin' && (!moved || distance(anchor, p) <= CLICK_SLOP_PX * unit)) return this.done([anchor]);
+    if (this.tool === 'pin') return this.done(rectangleCorners(anchor, p));
     // A click without dragging places the first point; the next click places the second.
     if (this.anchorThisPress && !moved) {
       this.anchorThisPress = false;
@@ -142,7 +146,7 @@ export class ShapeDraft {
     if (this.tool === 'freehand') return this.vertices.slice();
     if (this.anchor) {
       const to = this.cursor ?? this.anchor;
-      return this.tool === 'rectangle' ? rectangleCorners(this.anchor, to) : [this.anchor, to];
+      return this.tool === 'rectangle' || this.tool === 'pin' ? rectangleCorners(this.anchor, to) : [this.anchor, to];
     }
     if (this.vertices.length === 0) return [];
     return this.cursor ? [...this.vertices, this.cursor] : this.vertices.slice();

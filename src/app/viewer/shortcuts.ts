@@ -30,6 +30,7 @@ export const TOOL_KEYS: Record<string, ViewerTool> = {
   a: 'angle',
   t: 'text',
   k: 'calibrate',
+  c: 'pin',
 };
 
 /** Screen pixels an arrow key pans; with Shift, a larger step. */
@@ -90,6 +91,7 @@ export const SHORTCUT_HELP: { keys: string; what: string }[] = [
   { keys: 'A', what: 'Angle (click end, vertex, end)' },
   { keys: 'T', what: 'Note (click where it belongs, then type)' },
   { keys: 'K', what: 'Calibrate (drag along a scale of known length)' },
+  { keys: 'C', what: 'Comment pin (click a point or drag a box, then write)' },
   { keys: 'Backspace', what: 'Take back the last point while drawing' },
   { keys: 'Esc', what: 'Cancel the shape being drawn; clear the selection' },
   { keys: 'Del', what: 'Delete the selected shape' },
@@ -115,6 +117,7 @@ export const TOOL_HINTS: Record<ViewerTool, string> = {
   ruler: 'Drag from one end to the other.',
   angle: 'Click the first end, the vertex, then the other end.',
   text: 'Click where the note belongs, then type it.',
+  pin: 'Click to pin a comment to a point, or drag a box around a region; then write the comment.',
   calibrate: 'Drag along a stage micrometer or a burned-in scale bar, then enter its true length.',
 };
 

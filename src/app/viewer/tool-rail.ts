@@ -61,6 +61,12 @@ const KEY_OF = Object.fromEntries(Object.entries(TOOL_KEYS).map(([k, t]) => [t, 
           <mat-icon>square_foot</mat-icon>
         </button>
       }
+      @if (canComment()) {
+        <span class="divider"></span>
+        <button mat-icon-button type="button" aria-label="Comment pin" [attr.aria-pressed]="tool() === 'pin'" [class.on]="tool() === 'pin'" matTooltip="Pin a comment: click a point or drag a box (C)" matTooltipPosition="right" (click)="tool.set('pin')">
+          <mat-icon>add_comment</mat-icon>
+        </button>
+      }
     </div>
     <div class="group" role="group" aria-label="View">
       <button mat-icon-button type="button" aria-label="Zoom in" matTooltip="Zoom in (+)" matTooltipPosition="right" (click)="zoomIn.emit()">
@@ -113,6 +119,8 @@ export class ToolRail {
   readonly tool = model.required<ViewerTool>();
   readonly canAnnotate = input.required<boolean>();
   readonly canCalibrate = input.required<boolean>();
+  /** Reviewers, researchers and leads pin comment threads on the image. */
+  readonly canComment = input(false);
   /** Shape kinds the chosen class accepts. */
   readonly kinds = input.required<readonly AnnotationKind[]>();
   readonly zoomIn = output<void>();
@@ -124,7 +132,7 @@ export class ToolRail {
   private readonly kindSet = computed(() => new Set(this.kinds()));
 
   protected fits(tool: ViewerTool): boolean {
-    if (tool === 'select' || tool === 'calibrate') return true;
+    if (tool === 'select' || tool === 'calibrate' || tool === 'pin') return true;
     const kind = KIND_OF_TOOL[tool];
     return kind !== null && this.kindSet().has(kind);
   }

@@ -26,6 +26,8 @@ export interface InteractionHost {
   /** A selected shape is being dragged: show these points instead (null when the drag ends). */
   editPreview(key: string, points: Coordinates | null): void;
   commitEdit(key: string, points: Coordinates): void;
+  /** The select tool pressed here: true when a comment pin is under it (the page shows its thread). */
+  pressPin?(p: Point, unit: number): boolean;
   /** An edit the select tool cannot make (for example removing an outline's third vertex), with the reason. */
   editRefused?(reason: string): void;
   cursorMoved(p: Point | null): void;
@@ -167,6 +169,10 @@ export class ViewerInteraction {
     const shapes = this.host.shapes();
     const current = selected && this.host.canEdit() ? shapes.find((x) => x.key === selected) : undefined;
     if (current && current.kind !== 'point' && current.kind !== 'text' && this.pressHandle(current, p, alt)) return;
+    if (this.host.pressPin?.(p, this.unit)) {
+      this.mode = { type: 'press', last: s, clears: false };
+      return;
+    }
     const hit = topmostHit(shapes, p, this.unit);
     if (!hit) {
       this.mode = { type: 'press', last: s, clears: true };
