@@ -31,4 +31,24 @@ describe('notifications: mail wording', () => {
     expect(mail.text.match(/^- /gm)).to.have.length(100);
     expect(mail.text).to.contain('…and 5 more; open Etchfile to see them all.');
   });
+
+  it('when a notification is about a figure, then it names the figure by its title and links to the figure page (and its thread)', () => {
+    const figure = (kind: MailableNotification['kind'], threadId: string | null): MailableNotification => ({
+      kind,
+      projectId: 'p1',
+      imageId: null,
+      figureId: 'f7',
+      threadId,
+      facts: { projectCode: 'KV-LAM-24', figureTitle: 'Plate 2, bond lines', actorName: 'Dr. Sefa Orunmade', note: 'changed the annotations of ARB-1.tif, shown in a panel' },
+    });
+    const mention = composeSingle(figure('mention', 't3'), 'Joaquim', 'https://lab.example.test');
+    expect(mention.subject).to.equal('[KV-LAM-24] Dr. Sefa Orunmade mentioned you on the figure “Plate 2, bond lines”');
+    expect(mention.text).to.contain('Open it: https://lab.example.test/projects/p1/figures/f7?thread=t3\n');
+    const back = composeSingle(figure('returned_to_draft', null), 'Maren', 'https://lab.example.test');
+    expect(back.subject).to.equal('[KV-LAM-24] The figure “Plate 2, bond lines” is back to draft');
+    expect(back.text).to.contain('Dr. Sefa Orunmade changed the annotations of ARB-1.tif, shown in a panel, so it needs a new review');
+    expect(back.text).to.contain('Open it: https://lab.example.test/projects/p1/figures/f7\n');
+    const cleared = composeSingle(figure('cleared', null), 'Joaquim', 'https://lab.example.test');
+    expect(cleared.text).to.contain('PNG and TIFF');
+  });
 });

@@ -2,6 +2,7 @@ import { expect } from 'chai';
 import { REVIEW_STATES, REVIEW_TRANSITIONS, type ReviewSnapshot } from '../../../../shared/reviews';
 import {
   centreAnchor,
+  clearedFileLine,
   clearingBlocker,
   countOf,
   describeAnchor,
@@ -130,5 +131,19 @@ describe('client: review text, history and counts', () => {
     expect(clearingBlocker(0)).to.equal('');
     expect(clearingBlocker(1)).to.equal('1 open thread on this image; resolve it before clearing.');
     expect(clearingBlocker(3)).to.equal('3 open threads on this image; resolve them before clearing.');
+  });
+
+  it('names figure pins by the panel letter, or by place when a panel has no letter or is gone', () => {
+    expect(describeAnchor({ kind: 'figure' })).to.equal('whole figure');
+    expect(describeAnchor({ kind: 'panel', panel: 1 }, true, ['a', 'b'])).to.equal('panel b');
+    expect(describeAnchor({ kind: 'panel', panel: 1 }, true, ['a', ' '])).to.equal('panel 2');
+    expect(describeAnchor({ kind: 'panel', panel: 3 }, true, ['a', 'b'])).to.equal('panel 4');
+    expect(clearingBlocker(2, 'figure')).to.equal('2 open threads on this figure; resolve them before clearing.');
+  });
+
+  it('describes a kept cleared file with its pixels, print size and bytes', () => {
+    const line = clearedFileLine({ format: 'tiff', width: 236, height: 90, widthMm: 40, dpi: 150, byteSize: 1_234_567 });
+    expect(line).to.equal('TIFF, 236 × 90 px, 40 mm at 150 dpi, 1.2 MB');
+    expect(clearedFileLine({ format: 'png', width: 10, height: 10, widthMm: 20, dpi: 72, byteSize: 420 })).to.equal('PNG, 10 × 10 px, 20 mm at 72 dpi, 1 kB');
   });
 });
