@@ -48,8 +48,11 @@ export type ChangePasswordBody = z.infer<typeof changePasswordBody>;
 export const requestResetBody = z.strictObject({ email });
 export type RequestResetBody = z.infer<typeof requestResetBody>;
 
-export const completeResetBody = z.strictObject({
-  token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, { error: 'This link is not a valid reset link.' }),
-  newPassword,
-});
+const resetToken = z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, { error: 'This link is not a valid reset link.' });
+
+export const completeResetBody = z.strictObject({ token: resetToken, newPassword });
+
+/** POST /api/auth/password-reset/check: whether a link still works, asked when its page opens (nothing is used up). */
+export const checkResetBody = z.strictObject({ token: resetToken });
+export type CheckResetBody = z.infer<typeof checkResetBody>;
 export type CompleteResetBody = z.infer<typeof completeResetBody>;

@@ -1,6 +1,6 @@
 import type { Request, RequestHandler, Response } from 'express';
 import type { PassportStatic } from 'passport';
-import type { ChangePasswordBody, CompleteResetBody, RequestResetBody, SessionInfo } from '../../shared/auth';
+import type { ChangePasswordBody, CheckResetBody, CompleteResetBody, RequestResetBody, SessionInfo } from '../../shared/auth';
 import type { AppContext } from '../app-context';
 import { DEMO_ACCOUNTS } from '../demo/demo-accounts';
 import { AppError } from '../http/app-error';
@@ -55,6 +55,11 @@ export class AuthController {
   requestReset: RequestHandler = async (req, res) => {
     await this.service.requestReset((req.body as RequestResetBody).email);
     res.status(202).json({ message: 'If an account exists for that address, a link to set a new password is on its way.' });
+  };
+
+  checkReset: RequestHandler = async (req, res) => {
+    await this.service.checkReset(req.body as CheckResetBody);
+    res.status(204).end();
   };
 
   completeReset: RequestHandler = async (req, res) => {

@@ -1,8 +1,8 @@
-import type { ChangePasswordBody, CompleteResetBody } from '../../shared/auth';
+import type { ChangePasswordBody, CheckResetBody, CompleteResetBody } from '../../shared/auth';
 import type { AppContext } from '../app-context';
 import { AppError } from '../http/app-error';
 import { hashPassword, passwordMatches } from './password-hash';
-import { consumePasswordToken, issuePasswordToken } from './password-links';
+import { checkPasswordToken, consumePasswordToken, issuePasswordToken } from './password-links';
 import { endSessionsOf } from './session-revocation';
 import { User } from './user.entity';
 
@@ -75,6 +75,10 @@ export class AuthService {
         `${config.publicUrl}/reset-password?token=${token}`,
       ].join('\n'),
     });
+  }
+
+  async checkReset(body: CheckResetBody): Promise<void> {
+    await checkPasswordToken(this.ctx.dataSource.manager, body.token);
   }
 
   async completeReset(body: CompleteResetBody): Promise<void> {

@@ -32,8 +32,17 @@ export async function consumePasswordToken(m: EntityManager, token: string): Pro
     [sha256(token)],
   );
   if (rows.length === 1) return rows[0]!.user_id;
+  throw tokenRefusal(await m.getRepository(PasswordToken).findOneBy({ tokenHash: sha256(token) }));
+}
+
+/** Throws why the link does not work, as consuming it would, but leaves it unused when it does. */
+export async function checkPasswordToken(m: EntityManager, token: string): Promise<void> {
   const known = await m.getRepository(PasswordToken).findOneBy({ tokenHash: sha256(token) });
-  if (!known) throw new AppError(400, 'token_invalid', 'This link is not valid. Ask for a new one.');
-  if (known.usedAt) throw new AppError(400, 'token_invalid', 'This link has already been used. Ask for a new one if you still need it.');
-  throw new AppError(400, 'token_invalid', 'This link has expired. Ask for a new one.');
+  if (!known || known.usedAt || known.expiresAt.getTime() <= Date.now()) throw tokenRefusal(known);
+}
+
+function tokenRefusal(known: PasswordToken | null): AppError {
+  if (!known) return new AppError(400, 'token_invalid', 'This link is not valid. Ask for a new one.');
+  if (known.usedAt) return new AppError(400, 'token_invalid', 'This link has already been used. Ask for a new one if you still need it.');
+  return new AppError(400, 'token_invalid', 'This link has expired. Ask for a new one.');
 }

@@ -30,6 +30,11 @@ export class AuthApi {
     return this.http.post<void>('/api/auth/password-reset', body);
   }
 
+  /** Whether a reset or invitation link still works (204), or why not (400); it stays unused. */
+  checkReset(token: string): Observable<void> {
+    return this.http.post<void>('/api/auth/password-reset/check', { token });
+  }
+
   /** Sets a password from a reset or invitation link. */
   completeReset(body: CompleteResetBody): Observable<void> {
     return this.http.post<void>('/api/auth/password-reset/complete', body);

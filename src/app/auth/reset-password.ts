@@ -1,4 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { MatProgressBar } from '@angular/material/progress-bar';
+import { catchError, map, of } from 'rxjs';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MatCard, MatCardContent, MatCardHeader, MatCardTitle } from '@angular/material/card';
@@ -6,6 +8,7 @@ import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/for
 import { MatInput } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../core/api-error-message';
+import { remote } from '../core/remote';
 import { applyServerErrors } from '../core/server-errors';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
 import { AuthApi } from './auth-api';
@@ -28,6 +31,7 @@ import { PASSWORD_MAX, PASSWORD_MIN } from '../../../shared/auth-constants';
     MatHint,
     MatInput,
     MatLabel,
+    MatProgressBar,
     ReactiveFormsModule,
     RouterLink,
     ValidationMessagePipe,
@@ -57,6 +61,15 @@ export default class ResetPassword {
   protected readonly formError = signal('');
   /** Set when the server refused the link itself (used, expired or unknown). */
   protected readonly linkRefused = signal(false);
+  /** Asked as the page opens, so nobody types a new password into a dead link: '' when it works, else why not. */
+  protected readonly linkCheck = remote(this.token, (token) =>
+    token
+      ? this.api.checkReset(token).pipe(
+          map(() => ''),
+          catchError((error) => of(apiErrorMessage(error).message)),
+        )
+      : of(''),
+  );
 
   protected setPassword(): void {
     const token = this.token();

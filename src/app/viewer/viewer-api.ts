@@ -1,6 +1,7 @@
 import { HttpClient, HttpHeaders } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
+import type { AlignmentBody, ImageAlignment } from '../../../shared/alignments';
 import type { Annotation, AnnotationBody, AnnotationClass, AnnotationClassBody, UpdateAnnotationBody } from '../../../shared/annotations/annotations';
 import type { CalibrationChange, DrawnCalibrationBody } from '../../../shared/calibration';
 import type { ImageRecord, ImageSummary } from '../../../shared/images';
@@ -77,6 +78,20 @@ export class ViewerApi {
 
   calibrationHistory(projectId: string, imageId: string): Observable<CalibrationChange[]> {
     return this.http.get<CalibrationChange[]>(`${imageUrl(projectId, imageId)}/calibration/history`);
+  }
+
+  /** Every saved alignment of this image with another of its location, seen from this image. */
+  alignments(projectId: string, imageId: string): Observable<ImageAlignment[]> {
+    return this.http.get<ImageAlignment[]>(`${imageUrl(projectId, imageId)}/alignments`);
+  }
+
+  /** The server fits the transform from the pairs; 422 says why pairs were refused. */
+  saveAlignment(projectId: string, imageId: string, otherImageId: string, body: AlignmentBody): Observable<ImageAlignment> {
+    return this.http.put<ImageAlignment>(`${imageUrl(projectId, imageId)}/alignments/${enc(otherImageId)}`, body);
+  }
+
+  removeAlignment(projectId: string, imageId: string, otherImageId: string): Observable<void> {
+    return this.http.delete<void>(`${imageUrl(projectId, imageId)}/alignments/${enc(otherImageId)}`);
   }
 }
 

@@ -16,6 +16,7 @@ import type { ImageRecord, ImageSummary } from '../../../shared/images';
 import { actualPixels, fitViewport, imageToScreen, panBy, zoomAround, type Viewport } from '../../../shared/viewer/viewport';
 import { remote } from '../core/remote';
 import { SessionStore } from '../core/session-store';
+import { AlignmentCard } from './alignment-card';
 import { AnnotationPanel } from './annotation-panel';
 import { AnnotationStore } from './annotation-store';
 import { CalibrateCard } from './calibrate-card';
@@ -50,6 +51,7 @@ const ZOOM_STEP = 1.5;
 @Component({
   selector: 'ef-viewer-page',
   imports: [
+    AlignmentCard,
     AnnotationPanel,
     CalibrateCard,
     DisplayPanel,
@@ -171,6 +173,8 @@ export default class ViewerPage implements OnDestroy {
 
   /** The compared pane's view, for its scale bar. */
   protected readonly compareView = signal<Viewport | null>(null);
+  /** The compared pane once its stage is up, for the alignment card. */
+  protected readonly comparePaneRef = signal<ComparePane | null>(null);
 
   private stage: MicrographStage | null = null;
   private modules: StageModules | null = null;
@@ -472,15 +476,17 @@ export default class ViewerPage implements OnDestroy {
       host,
       stageHost,
       other,
-      { image: a, view: () => this.view(), setView: (v) => this.setView(v), viewChanged: (v) => this.compareView.set(v) },
+      { image: a, stageEl: this.stageHost()!.nativeElement, view: () => this.view(), setView: (v) => this.setView(v), viewChanged: (v) => this.compareView.set(v) },
       { tile: (level, col, row) => tileUrl(projectId, other.id, level, col, row), preview: previewUrl(projectId, other.id) },
     );
     if (!isNeutralTone(this.tone())) this.comparePane.setFilter('url(#ef-viewer-tone)');
+    this.comparePaneRef.set(this.comparePane);
   }
 
   private closeComparePane(): void {
     this.comparePane?.destroy();
     this.comparePane = null;
+    this.comparePaneRef.set(null);
     this.compareView.set(null);
   }
 

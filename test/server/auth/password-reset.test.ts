@@ -146,6 +146,26 @@ describe('auth: password reset by e-mailed link', () => {
     expect(await userState(user.id)).to.deep.equal(before);
   });
 
+  it('when a link is checked before use, then 204 and it stays usable; used, expired or unknown links are 400 with the reason', async () => {
+    const user = await makeUser();
+    const token = await linkFor(user.email);
+    const check = (t: string) => new ApiClient(app.url).post('/api/auth/password-reset/check', { token: t });
+
+    expect((await check(token)).status).to.equal(204);
+    expect((await passwordTokens(user.id))[0]!.used_at, 'checking uses nothing up').to.equal(null);
+    expect((await completeReset(token)).status).to.equal(204);
+    expect(expectApiError(await check(token), 400, 'token_invalid').message).to.match(/already been used/);
+
+    const second = await linkFor(user.email);
+    await sql(`UPDATE password_tokens SET expires_at = now() - interval '1 minute' WHERE user_id = $1 AND used_at IS NULL`, [user.id]);
+    expect(expectApiError(await check(second), 400, 'token_invalid').message).to.match(/expired/);
+
+    expect(expectApiError(await check('x'.repeat(43)), 400, 'token_invalid').message).to.match(/not valid/);
+    const garbage = await check('no good!');
+    expectApiError(garbage, 422, 'validation_failed');
+    expect(fieldsOf(garbage)).to.deep.equal(['body.token']);
+  });
+
   it('when the token is garbage, then 422 naming body.token', async () => {
     const res = await completeReset('<script>alert(1)</script>');
     expectApiError(res, 422, 'validation_failed');
