@@ -13,7 +13,7 @@ import { PrintFrame } from './print-frame';
 import { MeasurementsApi } from './measurements-api';
 import { formatCount, formatG, formatLength, formatPercent, formatPlusMinusUm, formatUm } from './measure-units';
 import { methodNotes } from './method-notes';
-import { interceptBars, rowLabel } from './summary-plot-data';
+import { distanceBars, interceptBars, rowLabel } from './summary-plot-data';
 
 /** Shown with every grain size summary (our wording of the research caution). */
 export const SUMMARY_CAUTION =
@@ -67,7 +67,9 @@ export default class GrainSizePage {
     })),
   );
   protected readonly anyRaWarning = computed(() => this.rows().some((r) => r.raWarning));
-  protected readonly bars = computed(() => interceptBars(this.summary.value()?.intercepts ?? []));
+  protected readonly bars = computed(() => interceptBars((this.summary.value()?.intercepts ?? []).filter((r) => r.distanceUm === null)));
+  /** l̄ per distance from the interfaces, when sub-bands were measured. */
+  protected readonly distance = computed(() => distanceBars(this.summary.value()?.intercepts ?? []));
   protected readonly method = computed(() => methodNotes(this.fields.value() ?? []));
   protected readonly caution = SUMMARY_CAUTION;
   protected readonly summaryCsv = computed(() => this.api.summaryCsvUrl(this.projectId(), this.specimenId()));

@@ -12,9 +12,9 @@ import type { InterceptBar } from './summary-plot-data';
   template: `
     <figure>
       <div class="chart">
-        <canvas baseChart type="bar" [data]="data()" [options]="options" role="img" [attr.aria-label]="description()"></canvas>
+        <canvas baseChart type="bar" [data]="data()" [options]="options()" role="img" [attr.aria-label]="description()"></canvas>
       </div>
-      <figcaption>Mean lineal intercept l̄ (µm) per layer band and direction; bars span the 95 % confidence interval across fields.</figcaption>
+      <figcaption>{{ caption() }}</figcaption>
     </figure>
   `,
   styles: `
@@ -25,6 +25,9 @@ import type { InterceptBar } from './summary-plot-data';
 })
 export class InterceptPlot {
   readonly bars = input.required<InterceptBar[]>();
+  /** What the horizontal axis lists. */
+  readonly axisTitle = input('Layer band · direction');
+  readonly caption = input('Mean lineal intercept l̄ (µm) per layer band and direction; bars span the 95 % confidence interval across fields.');
 
   protected readonly data = computed<ChartData<'bar'>>(() => {
     const bars = this.bars();
@@ -60,11 +63,11 @@ export class InterceptPlot {
     () => `Plot of mean lineal intercept: ${this.bars().map((b) => `${b.label} ${b.mean.toFixed(2)} µm (${b.low.toFixed(2)} to ${b.high.toFixed(2)})`).join('; ')}`,
   );
 
-  protected readonly options: ChartConfiguration<'bar'>['options'] = {
+  protected readonly options = computed<ChartConfiguration<'bar'>['options']>(() => ({
     responsive: true,
     maintainAspectRatio: false,
     animation: false,
-    scales: { y: { beginAtZero: true, title: { display: true, text: 'l̄ (µm)' } }, x: { title: { display: true, text: 'Layer band · direction' } } },
+    scales: { y: { beginAtZero: true, title: { display: true, text: 'l̄ (µm)' } }, x: { title: { display: true, text: this.axisTitle() } } },
     plugins: { legend: { position: 'bottom' } },
-  };
+  }));
 }

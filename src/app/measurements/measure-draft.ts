@@ -99,11 +99,17 @@ export interface DraftDefinition {
   pointMarks: PointMark[];
   thicknessSpacingUm: number;
   note: string;
+  /** An outline annotation to measure inside (instead of a band or the whole image). */
+  regionId?: string | null;
+  /** Sub-band edges in µm from the nearest bond interface (intercepts only). */
+  distanceBinsUm?: number[] | null;
+  /** Two-phase: the phase counted, with its V_V typed in or taken from a saved point count. */
+  phase?: { name: string; volumeFraction?: number; pointCountId?: string } | null;
 }
 
 /** The request body for a save: only the fields of the chosen kind. Pure. */
 export function bodyOf(d: DraftDefinition): MeasurementBody {
-  const where = whereOf(d.band);
+  const where: WhereSpec = d.regionId ? { type: 'region', annotationId: d.regionId } : whereOf(d.band);
   if (d.kind === 'thickness') {
     return { kind: 'thickness', where: { type: 'band', band: Math.max(1, d.band) }, spacingUm: d.thicknessSpacingUm, note: d.note };
   }
@@ -118,8 +124,8 @@ export function bodyOf(d: DraftDefinition): MeasurementBody {
     marks: d.marks.map((m) => ({ x: m.x, y: m.y, line: m.line, kind: m.kind, status: m.status })),
     rules: d.rules,
     twinsExcluded: true,
-    phase: null,
-    distanceBinsUm: null,
+    phase: d.phase ?? null,
+    distanceBinsUm: d.distanceBinsUm ?? null,
     note: d.note,
   };
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
@@ -7,12 +7,12 @@ import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
 import { forkJoin } from 'rxjs';
 import type { Point } from '../../../shared/annotations/geometry';
+import { defaultDetector, type CrossingDetector } from '../../../shared/measurements/crossings';
 import type { CountRules, MarkKind } from '../../../shared/measurements/e112';
 import type { Measurement } from '../../../shared/measurements/measurement-records';
 import type { PointMark } from '../../../shared/measurements/measurements';
 import { patternLines } from '../../../shared/measurements/patterns';
 import { gridPoints } from '../../../shared/measurements/point-count';
-import { clipSegmentToBand } from '../../../shared/measurements/layers';
 import { apiErrorMessage } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
 import { remote } from '../core/remote';
@@ -20,7 +20,8 @@ import { Breadcrumbs, type Crumb } from '../archive/breadcrumbs';
 import { ImageApi } from '../archive/image-api';
 import { ProjectApi } from '../projects/project-api';
 import { defaultRules, liveCounts, MARK_KIND_LABELS, markKindsFor, type DraftMark } from './mark-counts';
-import { bandFrame, bodyOf, DEFAULT_PATTERN, formOf, insideWhere, patternOf, type PatternForm } from './measure-draft';
+import { bandFrame, bodyOf, DEFAULT_PATTERN, formOf, patternOf, type PatternForm } from './measure-draft';
+import { countedPieces, insidePlace, parseBinEdges, placeValue, pointCountChoices, regionChoices, subBandEdgeLines, whereOfPlace, type PlaceValue } from './measure-where';
 import { MeasurementsApi } from './measurements-api';
 import { MeasureResult } from './measure-result';
 import { SavedMeasurements } from './saved-measurements';
@@ -60,7 +61,25 @@ export default class MeasurePage {
 
   protected readonly kind = signal<Kind>('intercept');
   protected readonly form = signal<PatternForm>(DEFAULT_PATTERN);
-  protected readonly band = signal(0);
+  /** Where: 'image', 'band:n' or 'region:<outline id>'. */
+  protected readonly place = signal<PlaceValue>('image');
+  protected readonly where = computed(() => whereOfPlace(this.place()));
+  protected readonly band = computed(() => {
+    const w = this.where();
+    return w.type === 'band' ? w.band : 0;
+  });
+  protected readonly regionId = computed(() => {
+    const w = this.where();
+    return w.type === 'region' ? w.annotationId : null;
+  });
+  /** Sub-band edges as typed, e.g. "0, 20, 40, 60" (µm from the nearest bond interface). */
+  protected readonly binsText = signal('');
+  /** Two-phase: count intercepts of one phase and divide by its volume fraction. */
+  protected readonly twoPhase = signal(false);
+  protected readonly phaseOfGrains = signal('');
+  /** The saved point count that gives V_V, or '' to type V_V in. */
+  protected readonly phasePointCount = signal('');
+  protected readonly typedFraction = signal(0.5);
   protected readonly rules = signal<CountRules>(defaultRules('lines'));
   protected readonly markKind = signal<MarkKind>('crossing');
   protected readonly marks = signal<DraftMark[]>([]);
@@ -94,6 +113,25 @@ export default class MeasurePage {
     return f ? bandFrame(f.shapes, f.classes) : { interfaces: [], axis: 'x' as const, bands: [] };
   });
   protected readonly interfacePaths = computed(() => this.bands().interfaces.map((line) => line.map((p) => p.join(',')).join(' ')));
+  protected readonly regions = computed(() => {
+    const f = this.frame.value();
+    return f ? regionChoices(f.shapes, f.classes) : [];
+  });
+  protected readonly regionOutline = computed(() => this.regions().find((r) => r.id === this.regionId())?.ring.map((p) => p.join(',')).join(' ') ?? null);
+  private readonly inside = (p: Point) => insidePlace(this.where(), this.bands(), this.regions(), p);
+  protected readonly bins = computed(() => parseBinEdges(this.binsText()));
+  protected readonly binsOffered = computed(() => this.kind() === 'intercept' && this.bands().interfaces.length > 0);
+  /** The sub-band edges drawn on the image, dashed, within the chosen place. */
+  protected readonly subBandLines = computed(() => {
+    const edges = this.bins().edges;
+    const um = this.layUmPerPx();
+    if (!edges || !um || !this.binsOffered()) return [];
+    return subBandEdgeLines(this.bands(), edges, um, this.inside).map((l) => ({ edgeUm: l.edgeUm, points: l.points.map((p) => p.join(',')).join(' '), at: l.points[Math.floor(l.points.length / 2)]! }));
+  });
+  protected readonly pointCounts = computed(() => pointCountChoices(this.saved.value() ?? [], this.where()));
+  /** The crossing finder: chosen by the person, defaulting to what fits how the image was made. */
+  protected readonly detector = linkedSignal<CrossingDetector>(() => defaultDetector(this.image.value()?.modality ?? '') ?? 'valleys');
+  protected readonly detectorDefault = computed(() => defaultDetector(this.image.value()?.modality ?? ''));
   /** A reopened measurement keeps the pixel size it was computed at (the server lays its pattern at that size). */
   protected readonly layUmPerPx = computed(() => this.editing()?.pixelSize.umPerPx ?? this.umPerPx());
   protected readonly pattern = computed(() => patternOf(this.form(), this.size().w, this.size().h, this.layUmPerPx() ?? 1));
@@ -113,17 +151,13 @@ export default class MeasurePage {
   protected readonly lineCount = computed(() => this.storedPaths()?.length ?? this.testLines().length);
   protected readonly segments = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'segment'));
   /** With a band chosen, the parts of the straight lines that count are drawn bright over the faint full lines. */
-  protected readonly countedPieces = computed(() => {
-    const band = this.bands().bands[this.band() - 1];
-    if (!band) return [];
-    return this.segments().flatMap(({ l }) => (l.kind === 'segment' ? clipSegmentToBand(l.a, l.b, band, this.bands().axis) : []));
-  });
+  protected readonly countedPieces = computed(() => countedPieces(this.testLines(), this.where(), this.bands(), this.regions()));
   protected readonly circles = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'circle'));
   protected readonly grid = computed(() => {
     const um = this.umPerPx();
     if (!um || this.kind() !== 'point_count' || !(this.gridSpacingUm() > 0)) return [];
     const pts = gridPoints(this.size().w, this.size().h, this.gridSpacingUm() / (this.layUmPerPx() ?? um));
-    return pts.length > 5000 ? [] : pts.filter((p) => insideWhere(this.bands(), this.band(), p));
+    return pts.length > 5000 ? [] : pts.filter((p) => this.inside(p));
   });
   protected readonly markKinds = computed(() => markKindsFor(this.form().type, this.rules()));
   protected readonly counts = computed(() => liveCounts(this.marks(), this.lineCount(), this.rules()));
@@ -158,7 +192,7 @@ export default class MeasurePage {
 
   protected chooseKind(kind: string): void {
     this.kind.set(kind as Kind);
-    if (kind === 'thickness' && this.band() === 0) this.band.set(1);
+    if (kind === 'thickness' && this.band() === 0) this.place.set('band:1');
     this.clearResult();
   }
 
@@ -175,10 +209,11 @@ export default class MeasurePage {
     this.clearResult();
   }
 
-  protected changeBand(value: string): void {
-    this.band.set(Number(value));
+  protected changePlace(value: string): void {
+    this.place.set(value);
     this.patternDirty.set(true);
-    this.marks.update((ms) => ms.filter((m) => insideWhere(this.bands(), this.band(), [m.x, m.y])));
+    this.phasePointCount.set('');
+    this.marks.update((ms) => ms.filter((m) => this.inside([m.x, m.y])));
     this.pointMarks.set([]);
     this.clearResult();
   }
@@ -203,7 +238,7 @@ export default class MeasurePage {
       else this.removeMark(hit);
       return;
     }
-    const inside = (q: Point) => this.storedPaths() !== null || insideWhere(this.bands(), this.band(), q);
+    const inside = (q: Point) => this.storedPaths() !== null || this.inside(q);
     const snapped = snapToSegments(p, this.snapSegments(), reach, inside);
     if (!snapped) return;
     const [x, y] = snapped.point;
@@ -241,12 +276,13 @@ export default class MeasurePage {
   protected suggest(): void {
     this.suggesting.set(true);
     this.errorText.set('');
-    const where = this.band() > 0 ? { type: 'band' as const, band: this.band() } : { type: 'image' as const };
-    this.api.suggest(this.projectId(), this.imageId(), { pattern: this.pattern(), placement: { offsetPx: [0, 0] }, where }).subscribe({
+    const detector = this.detector();
+    this.api.suggest(this.projectId(), this.imageId(), { pattern: this.pattern(), placement: { offsetPx: [0, 0] }, where: this.where(), detector }).subscribe({
       next: (answer) => {
         const proposed: DraftMark[] = answer.marks.map((m) => ({ x: m.x, y: m.y, line: m.line, kind: m.kind, status: 'suggested' }));
         this.marks.update((ms) => [...ms.filter((m) => m.status === 'confirmed'), ...proposed]);
-        this.suggestNote.set(`${proposed.length} suggestions in ${formatDuration(answer.ms)} (${answer.detector === 'valleys' ? 'dark boundaries' : 'colour steps'}). Hollow marks do not count until you accept them.`);
+        const how = answer.detector === 'valleys' ? 'dark boundary lines' : 'changes of colour or brightness';
+        this.suggestNote.set(`${proposed.length} suggestions in ${formatDuration(answer.ms)} (looked for ${how}). Hollow marks do not count until you accept them.`);
         this.suggesting.set(false);
       },
       error: (error) => {
@@ -260,8 +296,13 @@ export default class MeasurePage {
     const body = bodyOf({
       kind: this.kind(), pattern: this.pattern(), band: this.band(), rules: this.rules(), marks: this.marks(),
       gridSpacingUm: this.gridSpacingUm(), phaseName: this.phaseName(), pointMarks: this.pointMarks(),
-      thicknessSpacingUm: this.thicknessSpacingUm(), note: '',
+      thicknessSpacingUm: this.thicknessSpacingUm(), note: '', regionId: this.regionId(),
+      distanceBinsUm: this.binsOffered() ? this.bins().edges : null, phase: this.phaseChoice(),
     });
+    if (this.binsOffered() && this.bins().error) {
+      this.errorText.set(this.bins().error);
+      return;
+    }
     const open = this.editing();
     this.saving.set(true);
     this.errorText.set('');
@@ -294,8 +335,13 @@ export default class MeasurePage {
   protected reopen(m: Measurement): void {
     const d = m.definition;
     this.kind.set(d.kind);
-    this.band.set(d.where.type === 'band' ? d.where.band : 0);
+    this.place.set(placeValue(d.where));
     if (d.kind === 'intercept') {
+      this.binsText.set(d.distanceBinsUm?.join(', ') ?? '');
+      this.twoPhase.set(d.phase !== null);
+      this.phaseOfGrains.set(d.phase?.name ?? '');
+      this.phasePointCount.set(d.phase?.pointCountId ?? '');
+      if (d.phase?.volumeFraction !== undefined) this.typedFraction.set(d.phase.volumeFraction);
       this.form.set(formOf(d.pattern));
       this.rules.set(d.rules ?? defaultRules(d.pattern.type));
       this.marks.set(d.marks.map((k) => ({ x: k.x, y: k.y, line: k.line, kind: k.kind, status: k.status })));
@@ -346,6 +392,19 @@ export default class MeasurePage {
         error: (error) => this.errorText.set(apiErrorMessage(error).message),
       });
     });
+  }
+
+  /** Two-phase on or off: a two-phase count counts intercepts N of its phase (E112). */
+  protected chooseTwoPhase(on: boolean): void {
+    this.twoPhase.set(on);
+    if (on) this.rules.update((r) => ({ ...r, count: 'intercepts' }));
+  }
+
+  /** The phase part of the request: a saved point count when one is chosen, else the V_V typed in. */
+  private phaseChoice(): { name: string; volumeFraction?: number; pointCountId?: string } | null {
+    if (!this.twoPhase()) return null;
+    const name = this.phaseOfGrains().trim();
+    return this.phasePointCount() ? { name, pointCountId: this.phasePointCount() } : { name, volumeFraction: this.typedFraction() };
   }
 
   protected removePointMark(index: number): void {

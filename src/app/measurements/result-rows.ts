@@ -30,6 +30,14 @@ export function resultRows(r: MeasurementResult): ResultRow[] {
       rows.push(...interceptRows(r.byDirection.along, r.countSymbol, 'Along the interfaces'), ...interceptRows(r.byDirection.across, r.countSymbol, 'Across the interfaces'));
       if (r.byDirection.anisotropyIndex !== null) rows.push({ label: 'Anisotropy index l̄∥ / l̄⊥', value: r.byDirection.anisotropyIndex.toFixed(2) });
     }
+    if (r.phase) {
+      const from = r.phase.pointCount ? `from the point count of ${r.phase.pointCount.phaseName} on ${r.phase.pointCount.whereLabel}, version ${r.phase.pointCount.version}` : 'typed in';
+      rows.splice(4, 0, { label: `Volume fraction of ${r.phase.name} V`, sub: 'V', value: `${r.phase.volumeFraction.toFixed(3)} (${from})` });
+    }
+    for (const bin of r.bins ?? []) {
+      const group = subBandTitle(bin.minUm, bin.maxUm);
+      rows.push(...interceptRows(bin, r.countSymbol, group), { label: 'Confirmed marks in this sub-band', value: String(bin.marks), group });
+    }
     return rows;
   }
   if (r.kind === 'point_count') {
@@ -45,6 +53,11 @@ export function resultRows(r: MeasurementResult): ResultRow[] {
     { label: 'Range', value: `${formatUm(r.minUm, 1)} – ${formatUm(r.maxUm, 1)}` },
     { label: 'Samples', value: `${r.samplesUm.length}, every ${formatUm(r.spacingUm, 1)}` },
   ];
+}
+
+/** "Sub-band 0–20 µm from the nearest interface". Pure. */
+export function subBandTitle(minUm: number, maxUm: number): string {
+  return `Sub-band ${minUm}–${maxUm}\u00a0µm from the nearest interface`;
 }
 
 /** The one-line gist of a result for a list. Pure. */

@@ -24,3 +24,24 @@ export function interceptBars(rows: readonly InterceptSummary[]): InterceptBar[]
       return { label: rowLabel(r), mean: r.meanIntercept.mean, low: Math.max(0, r.meanIntercept.mean - ci), high: r.meanIntercept.mean + ci };
     });
 }
+
+/** A sub-band row's place without its distance: "band 2", "region “near bond”". Pure. */
+export function placeOfSubBand(row: Pick<InterceptSummary, 'where'>): string {
+  return row.where.replace(/, [\d.]+–[\d.]+ µm from the nearest bond interface$/, '');
+}
+
+/**
+ * Bars for the plot across the distance from the interfaces: one per sub-band row (all directions pooled),
+ * grouped by place and ordered outwards from the interface. Pure.
+ */
+export function distanceBars(rows: readonly InterceptSummary[]): InterceptBar[] {
+  return rows
+    .filter((r) => r.distanceUm !== null && r.direction === 'all' && r.meanIntercept.n > 0 && Number.isFinite(r.meanIntercept.mean))
+    .slice()
+    .sort((a, b) => placeOfSubBand(a).localeCompare(placeOfSubBand(b)) || a.distanceUm!.min - b.distanceUm!.min || (a.phase ?? '').localeCompare(b.phase ?? ''))
+    .map((r) => {
+      const ci = r.meanIntercept.ci95 ?? 0;
+      const label = `${placeOfSubBand(r)} · ${r.distanceUm!.min}–${r.distanceUm!.max} µm${r.phase ? ` · ${r.phase}` : ''}`;
+      return { label, mean: r.meanIntercept.mean, low: Math.max(0, r.meanIntercept.mean - ci), high: r.meanIntercept.mean + ci };
+    });
+}

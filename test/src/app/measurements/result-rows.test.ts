@@ -108,3 +108,27 @@ describe('client: result rows, a point count and a thickness', () => {
     expect(groupRows(resultRows(thickness))).to.have.length(1);
   });
 });
+
+describe('client: result rows, sub-bands and a phase volume fraction', () => {
+  it('adds one titled group per sub-band with its own length, count, l̄ and marks', () => {
+    // 0–20 µm: P = 10 on 0.5 mm → l̄ 50 µm; 20–40 µm: P = 25 on 0.5 mm → l̄ 20 µm (hand-computed, l̄ = L / P).
+    const bins = [
+      { minUm: 0, maxUm: 20, marks: 10, ...figures(500, 10) },
+      { minUm: 20, maxUm: 40, marks: 25, ...figures(500, 25) },
+    ];
+    const groups = groupRows(resultRows(intercept({ bins })));
+    expect(groups.map((g) => g.title)).to.deep.equal(['', `Sub-band 0–20${NB}µm from the nearest interface`, `Sub-band 20–40${NB}µm from the nearest interface`]);
+    expect(groups[1]!.rows.find((r) => r.label === 'Mean lineal intercept l̄')!.value).to.equal(`50.00${NB}µm`);
+    expect(groups[2]!.rows.find((r) => r.label === 'Mean lineal intercept l̄')!.value).to.equal(`20.00${NB}µm`);
+    expect(groups[2]!.rows.find((r) => r.label === 'Confirmed marks in this sub-band')!.value).to.equal('25');
+  });
+
+  it('states the volume fraction and the point count it came from', () => {
+    const phase = { name: 'ferrite', volumeFraction: 1 / 3, pointCount: { id: 'pc', version: 2, phaseName: 'ferrite', whereLabel: 'band 1', pointFraction: 1 / 3 } };
+    const row = resultRows(intercept({ countSymbol: 'N', phase })).find((r) => r.sub === 'V')!;
+    expect(row.label).to.equal('Volume fraction of ferrite V');
+    expect(row.value).to.equal('0.333 (from the point count of ferrite on band 1, version 2)');
+    const typed = resultRows(intercept({ countSymbol: 'N', phase: { ...phase, volumeFraction: 0.4, pointCount: null } })).find((r) => r.sub === 'V')!;
+    expect(typed.value).to.equal('0.400 (typed in)');
+  });
+});

@@ -1,6 +1,6 @@
 import { expect } from 'chai';
 import type { AcrossFields, InterceptSummary } from '../../../../shared/measurements/measurement-records';
-import { interceptBars, rowLabel } from '../../../../src/app/measurements/summary-plot-data';
+import { distanceBars, interceptBars, placeOfSubBand, rowLabel } from '../../../../src/app/measurements/summary-plot-data';
 
 const across = (n: number, mean: number, ci95: number | null): AcrossFields => ({ n, mean, s: null, ci95, relativeAccuracyPct: null, relativeAccuracyWarning: false });
 const row = (where: string, direction: InterceptSummary['direction'], meanIntercept: AcrossFields, phase: string | null = null): InterceptSummary => ({
@@ -50,5 +50,27 @@ describe('client: summary plot data', () => {
     const bars = interceptBars([row('band 1', 'along', across(0, Number.NaN, null)), row('band 2', 'along', across(3, 30, 2))]);
 
     expect(bars.map((b) => b.label)).to.deep.equal(['band 2 · along']);
+  });
+});
+
+describe('client: the plot across the distance from the interfaces', () => {
+  it('keeps sub-band rows only, ordered outwards per place, with their 95 % intervals', () => {
+    const sub = (where: string, min: number, max: number, mean: number, ci: number | null, band: number | null = 1): InterceptSummary => ({
+      ...row(`${where}, ${min}–${max} µm from the nearest bond interface`, 'all', across(3, mean, ci)),
+      band,
+      distanceUm: { min, max },
+    });
+    const rows = [
+      row('band 1', 'along', across(3, 30, 2)),
+      sub('band 1', 20, 40, 25, 3),
+      sub('band 1', 0, 20, 12, 1.5),
+      sub('region “near bond”', 0, 20, 10, null, null),
+    ];
+    const bars = distanceBars(rows);
+    expect(bars.map((b) => b.label)).to.deep.equal(['band 1 · 0–20 µm', 'band 1 · 20–40 µm', 'region “near bond” · 0–20 µm']);
+    // Interval = mean ± CI (hand-computed): 12 ± 1.5 → 10.5–13.5 µm; a single-field row has no interval.
+    expect(bars[0]).to.deep.include({ mean: 12, low: 10.5, high: 13.5 });
+    expect(bars[2]).to.deep.include({ mean: 10, low: 10, high: 10 });
+    expect(placeOfSubBand({ where: 'region “a, b”, 0–20 µm from the nearest bond interface' })).to.equal('region “a, b”');
   });
 });
