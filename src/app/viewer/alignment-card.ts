@@ -1,5 +1,5 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, output, signal, untracked } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatSlider, MatSliderThumb } from '@angular/material/slider';
@@ -32,6 +32,7 @@ interface PickedPair {
   selector: 'ef-alignment-card',
   imports: [MatButton, MatProgressBar, MatSlider, MatSliderThumb],
   changeDetection: ChangeDetectionStrategy.OnPush,
+  host: { '(document:keydown.escape)': 'cancelOnEscape()' },
   template: `
     <section class="card" aria-labelledby="alignment-heading">
       <h3 id="alignment-heading" class="visually-hidden">Alignment with the main image</h3>
@@ -182,6 +183,8 @@ export class AlignmentCard {
   readonly canAlign = input(false);
   readonly classes = input<readonly AnnotationClass[]>([]);
   readonly hiddenClasses = input<ReadonlySet<string>>(new Set());
+  /** The main pane's tool: picking needs the select tool, or clicks would also draw. */
+  readonly tool = input<string>('select');
   /** Picking started: the main pane should take clicks with the select tool, not draw. */
   readonly pickingStarted = output<void>();
 
@@ -193,9 +196,14 @@ export class AlignmentCard {
     () => ({ projectId: this.projectId(), otherId: this.other().id }),
     (p) => this.api.annotations(p.projectId, p.otherId),
   );
-  protected readonly alignment = computed<ImageAlignment | null>(() => this.saved.value() ?? null);
-  protected readonly picking = signal(false);
-  protected readonly pairs = signal<PickedPair[]>([]);
+  /** The saved alignment of exactly these two images (the last pair's value stays while the next loads). */
+  protected readonly alignment = computed<ImageAlignment | null>(() => {
+    const a = this.saved.value();
+    return a && a.imageId === this.image().id && a.otherImageId === this.other().id ? a : null;
+  });
+  /** Picking starts afresh whenever another image is compared. */
+  protected readonly picking = linkedSignal({ source: () => this.other().id, computation: () => false });
+  protected readonly pairs = linkedSignal<string, PickedPair[]>({ source: () => this.other().id, computation: () => [] });
   protected readonly shown = signal(true);
   /** Overlay opacity, %. */
   protected readonly opacity = signal(50);
@@ -223,6 +231,15 @@ export class AlignmentCard {
     if (done >= MAX_PAIRS) return 'Three pairs picked: save the alignment, or undo a point.';
     if (done >= MIN_PAIRS) return `Save now (scale, rotation, shift), or click a third point on the main image for an affine fit.`;
     return `Pair ${n + 1}: click a distinct feature on the main image. Drag to pan and scroll to zoom as usual.`;
+  });
+
+  private readonly stopPickingForOtherTools = effect(() => {
+    if (this.tool() !== 'select' && untracked(() => this.picking())) {
+      untracked(() => {
+        this.cancel();
+        this.problem.set('Picking points stopped because a drawing tool was chosen; start picking again.');
+      });
+    }
   });
 
   private readonly pushAlignment = effect(() => {
@@ -276,6 +293,11 @@ export class AlignmentCard {
       if (!last) return list;
       return last.other ? [...list.slice(0, -1), { image: last.image, other: null }] : list.slice(0, -1);
     });
+  }
+
+  /** Escape while picking drops the picked points (the page's own Escape handling runs as well). */
+  protected cancelOnEscape(): void {
+    if (this.picking()) this.cancel();
   }
 
   protected cancel(): void {
