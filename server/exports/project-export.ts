@@ -66,7 +66,7 @@ export async function writeProjectExport(ctx: AppContext, projectId: string, out
   zip.append(fieldsCsv((m) => m.image.specimen.code, await measurementsWithContext(ds.manager, projectId)), { name: 'measurements.csv' });
 
   const threads = await ds.query(
-    `SELECT t.id, t.image_id, t.anchor_kind, t.anchor, t.measurement_id, t.status, t.created_at, t.resolved_at,
+    `SELECT t.id, t.image_id, t.figure_id, t.anchor_kind, t.anchor, t.measurement_id, t.status, t.created_at, t.resolved_at,
             (SELECT json_agg(json_build_object('author', u.display_name, 'body', c.body, 'at', c.created_at) ORDER BY c.created_at)
                FROM comments c JOIN users u ON u.id = c.author_id WHERE c.thread_id = t.id) AS comments
        FROM comment_threads t WHERE t.project_id = $1 ORDER BY t.created_at`,
@@ -87,7 +87,7 @@ export async function writeProjectExport(ctx: AppContext, projectId: string, out
       'images.csv        every image with its pixel size and where that came from; sha256 identifies the original file',
       'annotations/      one GeoJSON (RFC 7946) file per image; coordinates are full-resolution image pixels, x right, y down',
       'measurements.csv  every measured field with its method, counts, units and the pixel size used',
-      'comments.json     review threads and their comments',
+      'comments.json     review threads (on an image, or on a figure and its panels) and their comments',
       'history.csv       who did what, and when',
       '',
       RESEARCH_CAUTION,

@@ -44,6 +44,9 @@ import { pixelSizeText } from './figure-geometry';
         </mat-form-field>
       </div>
       <p class="note">A journal column is about 85 mm wide, a full page about 170 mm; print usually asks 300 to 600 dpi.</p>
+      @if (figureId() !== null) {
+        <p class="note">Width and dpi are saved with the figure as its print size; clearing it keeps a PNG and a TIFF at that size.</p>
+      }
       @if (localProblem(); as problem) {
         <p class="problem" role="alert">{{ problem }}</p>
       } @else {
