@@ -116,6 +116,7 @@ describe('e2e: aligning a co-located image by point pairs and laying it over in 
     await expectText(card, /Compared image drawn at 2\.0\d\d ×|Compared image drawn at 1\.9\d\d ×/);
     await card.getByRole('button', { name: 'Save alignment' }).click();
     await expectText(card, /saved by/);
+    await expectText(page.locator('.compare-head .link-note'), 'Linked by the saved alignment');
 
     const slider = card.getByRole('slider', { name: 'Overlay opacity' });
     await slider.fill('30');

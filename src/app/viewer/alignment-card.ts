@@ -187,6 +187,8 @@ export class AlignmentCard {
   readonly tool = input<string>('select');
   /** Picking started: the main pane should take clicks with the select tool, not draw. */
   readonly pickingStarted = output<void>();
+  /** Whether these two images have a saved alignment (the panes then follow it). */
+  readonly alignedChange = output<boolean>();
 
   protected readonly saved = remote(
     () => ({ projectId: this.projectId(), imageId: this.image().id, otherId: this.other().id }),
@@ -240,6 +242,11 @@ export class AlignmentCard {
         this.problem.set('Picking points stopped because a drawing tool was chosen; start picking again.');
       });
     }
+  });
+
+  private readonly reportAligned = effect(() => {
+    const aligned = this.alignment() !== null;
+    untracked(() => this.alignedChange.emit(aligned));
   });
 
   private readonly pushAlignment = effect(() => {

@@ -168,6 +168,7 @@ export default class ViewerPage implements OnDestroy {
     const a = this.image();
     const b = this.compared();
     if (!a || !b) return '';
+    if (this.compareAligned()) return 'Linked by the saved alignment';
     return linkedByMicrometres(frameOf(a), frameOf(b)) ? 'Linked by position in µm' : 'Linked by image fraction (one of the two is uncalibrated)';
   });
 
@@ -175,6 +176,8 @@ export default class ViewerPage implements OnDestroy {
   protected readonly compareView = signal<Viewport | null>(null);
   /** The compared pane once its stage is up, for the alignment card. */
   protected readonly comparePaneRef = signal<ComparePane | null>(null);
+  /** Whether the compared image has a saved alignment with this one (the alignment card says). */
+  protected readonly compareAligned = signal(false);
 
   private stage: MicrographStage | null = null;
   private modules: StageModules | null = null;
