@@ -19,7 +19,9 @@ import { SessionStore } from '../core/session-store';
 import { AlignmentCard } from './alignment-card';
 import { AnnotationPanel } from './annotation-panel';
 import { AnnotationStore } from './annotation-store';
+import type { Mentionable } from '../reviews/comment-box';
 import { CalibrateCard } from './calibrate-card';
+import { CommentsPanel } from './comments-panel';
 import { formatPixelSize } from './calibration-input';
 import type { ShapeState } from './command-stack';
 import { ComparePane, frameOf, type StageModules } from './compare-pane';
@@ -30,6 +32,9 @@ import { cursorReadout } from './measurements';
 import type { MicrographStage } from './micrograph-stage';
 import { draftOverlay, selectionOverlay } from './overlay-content';
 import { OverviewMap } from './overview-map';
+import { PinCard } from './pin-card';
+import { ReviewPinBoard } from './review-pin-board';
+import { anchorFromDraft, pinFrame, pinUnder, type PinAnchor } from './review-pins';
 import { ScaleBar } from './scale-bar';
 import { KIND_OF_TOOL, type FinishedDraft, type ShapeDraft } from './shape-draft';
 import { ShortcutHelp } from './shortcut-help';
@@ -54,6 +59,7 @@ const ZOOM_STEP = 1.5;
     AlignmentCard,
     AnnotationPanel,
     CalibrateCard,
+    CommentsPanel,
     DisplayPanel,
     ImagePanel,
     MatButton,
@@ -69,12 +75,13 @@ const ZOOM_STEP = 1.5;
     MatTabGroup,
     MatTooltip,
     OverviewMap,
+    PinCard,
     RouterLink,
     ScaleBar,
     ShortcutHelp,
     ToolRail,
   ],
-  providers: [AnnotationStore],
+  providers: [AnnotationStore, ReviewPinBoard],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './viewer-page.html',
   styleUrl: './viewer-page.scss',
@@ -94,10 +101,13 @@ export default class ViewerPage implements OnDestroy {
   private readonly session = inject(SessionStore);
   private readonly title = inject(Title);
   protected readonly store = inject(AnnotationStore);
+  protected readonly pins = inject(ReviewPinBoard);
 
   /** Route parameters. */
   readonly projectId = input.required<string>();
   readonly imageId = input.required<string>();
+  /** Query parameter: a comment thread to show and fly to (notification e-mails link with it). */
+  readonly thread = input<string | undefined>();
   private readonly canvasHost = viewChild<ElementRef<HTMLDivElement>>('canvasHost');
   private readonly stageHost = viewChild<ElementRef<HTMLDivElement>>('stageHost');
   private readonly noteInput = viewChild<ElementRef<HTMLInputElement>>('noteInput');
@@ -117,6 +127,10 @@ export default class ViewerPage implements OnDestroy {
   protected readonly canAnnotate = computed(() => this.allowed().has('annotate'));
   protected readonly canCalibrate = computed(() => this.allowed().has('editMetadata'));
   protected readonly canEditClasses = computed(() => this.allowed().has('editProject'));
+  protected readonly canComment = computed(() => this.allowed().has('comment'));
+  protected readonly members = computed<Mentionable[]>(() =>
+    (this.project.value()?.members ?? []).map((m) => ({ id: m.userId, name: m.displayName, email: m.email })),
+  );
   protected readonly classes = computed(() => this.classList.value() ?? []);
   protected readonly classId = linkedSignal<string>(() => this.classes()[0]?.id ?? '');
   protected readonly chosenClass = computed(() => this.classes().find((c) => c.id === this.classId()) ?? null);
@@ -146,6 +160,23 @@ export default class ViewerPage implements OnDestroy {
   protected readonly helpOpen = signal(false);
   protected readonly calibrationLine = signal<Coordinates | null>(null);
   protected readonly note = signal<{ at: Point; text: string } | null>(null);
+  /** A comment pin just drawn, waiting for its first comment. */
+  protected readonly pinDraft = signal<PinAnchor | null>(null);
+  protected readonly pinCardPosition = computed(() => {
+    const a = this.pinDraft();
+    const v = this.view();
+    if (!a || !v) return null;
+    const [x, y] = a.kind === 'point' ? a.at : a.kind === 'region' ? a.ring[2]! : [0, 0];
+    const s = imageToScreen(v, x, y);
+    // Kept inside the canvas, so a pin near the right or bottom edge still shows its card.
+    return { x: Math.max(8, Math.min(s.x + 12, v.width - 356)), y: Math.max(8, Math.min(s.y + 12, v.height - 260)) };
+  });
+  /** The side panel's tab: 0 annotations, 1 comments, 2 image, 3 display. */
+  protected readonly sideTab = signal(0);
+  protected readonly commentsLabel = computed(() => {
+    const open = this.pins.openCount();
+    return open > 0 ? `Comments (${open})` : 'Comments';
+  });
   protected readonly notePosition = computed(() => {
     const n = this.note();
     const v = this.view();
@@ -225,6 +256,35 @@ export default class ViewerPage implements OnDestroy {
     untracked(() => {
       this.syncShapes(shapes, hidden, colours);
       this.refreshOverlay();
+    });
+  });
+
+  private readonly loadPins = effect(() => {
+    const projectId = this.projectId();
+    const imageId = this.imageId();
+    if (this.ready()) untracked(() => this.pins.show(projectId, imageId));
+  });
+
+  private readonly drawPins = effect(() => {
+    const pins = this.pins.pins();
+    const focused = this.pins.focused();
+    if (!this.stageReady() || !this.stage) return;
+    this.stage.overlay.setPins(pins, focused);
+    this.stage.invalidate('overlay');
+  });
+
+  /** A link to a thread (?thread=…) opens the Comments tab and flies to its pin once both are there. */
+  private flownToThread: string | null = null;
+  private readonly followThreadLink = effect(() => {
+    const id = this.thread();
+    const pin = this.pins.pins().find((p) => p.threadId === id);
+    const known = (this.pins.threads.value() ?? []).some((t) => t.id === id);
+    if (!id || id === this.flownToThread || !known || !this.stageReady()) return;
+    this.flownToThread = id;
+    untracked(() => {
+      this.pins.focused.set(id);
+      this.sideTab.set(1);
+      if (pin) this.flyToPin(id);
     });
   });
 
@@ -329,6 +389,27 @@ export default class ViewerPage implements OnDestroy {
     this.tool.set('select');
     this.stopFlight();
     this.stopFlight = fly(v, viewportForBounds(v, s.bounds), (next) => this.setView(next));
+  }
+
+  /** From the pin list or the canvas: focus the thread and fly the view to its pin. */
+  protected flyToPin(threadId: string): void {
+    const pin = this.pins.pins().find((p) => p.threadId === threadId);
+    const v = this.view();
+    const img = this.image();
+    this.pins.focused.set(threadId);
+    if (!pin || !v || !img) return;
+    this.stopFlight();
+    this.stopFlight = fly(v, viewportForBounds(v, pinFrame(pin, img)), (next) => this.setView(next));
+  }
+
+  protected pinStarted(threadId: string): void {
+    this.pinDraft.set(null);
+    this.pins.focused.set(threadId);
+    this.sideTab.set(1);
+  }
+
+  protected cancelPin(): void {
+    this.pinDraft.set(null);
   }
 
   protected changeShape(change: { key: string; state: ShapeState }): void {
@@ -445,6 +526,7 @@ export default class ViewerPage implements OnDestroy {
         if (this.interaction?.cancelDraft()) return;
         if (this.helpOpen()) return this.helpOpen.set(false);
         if (this.note()) return this.note.set(null);
+        if (this.pinDraft()) return this.pinDraft.set(null);
         if (this.calibrationLine()) return this.calibrationLine.set(null);
         return this.selectedKey.set(null);
       case 'help':
@@ -458,6 +540,10 @@ export default class ViewerPage implements OnDestroy {
       return;
     }
     if (tool === 'select') return this.tool.set(tool);
+    if (tool === 'pin') {
+      if (this.canComment()) this.tool.set(tool);
+      return;
+    }
     const kind = KIND_OF_TOOL[tool];
     if (this.canAnnotate() && kind && this.kinds().includes(kind)) this.tool.set(tool);
   }
@@ -525,6 +611,7 @@ export default class ViewerPage implements OnDestroy {
       editPreview: (key, points) => this.editPreview(key, points),
       commitEdit: (key, points) => this.commitEdit(key, points),
       editRefused: (reason) => this.problem.set(reason),
+      pressPin: (p, unit) => this.pressPin(p, unit),
       cursorMoved: (p) => this.cursor.set(p),
     });
     this.resizeObserver = new ResizeObserver(() => {
@@ -544,11 +631,24 @@ export default class ViewerPage implements OnDestroy {
       this.calibrationLine.set(result.points);
       return;
     }
+    if (result.tool === 'pin') {
+      this.pinDraft.set(anchorFromDraft(result.points));
+      return;
+    }
     if (result.tool === 'text') {
       this.note.set({ at: result.points[0]!, text: '' });
       return;
     }
     this.addShape({ classId: this.classId(), kind: KIND_OF_TOOL[result.tool]!, points: result.points, label: '' });
+  }
+
+  /** A press of the select tool on a comment pin shows its thread in the side panel. */
+  private pressPin(p: Point, unit: number): boolean {
+    const id = pinUnder(this.pins.pins(), p, unit);
+    if (!id) return false;
+    this.pins.focused.set(id);
+    this.sideTab.set(1);
+    return true;
   }
 
   /** Checks a new shape as the server will, then shows and saves it. */
