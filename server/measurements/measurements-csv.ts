@@ -75,11 +75,13 @@ export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), r
     const tail: Cell[] = [formatUmPerPx(m.umPerPx), m.pixelSizeSource, staleness(m.umPerPx, m.image.pixelSizeUm) !== null];
     const end: Cell[] = [m.author.displayName, m.computedAt.toISOString()];
     if (r.kind === 'intercept' && m.definition.kind === 'intercept') {
-      const parts: [string, InterceptFigures][] = [[r.direction, r]];
-      if (r.byDirection) parts.push(['along', r.byDirection.along], ['across', r.byDirection.across]);
-      for (const [direction, f] of parts) {
+      const parts: [string, InterceptFigures, string][] = [[r.direction, r, m.whereLabel]];
+      if (r.byDirection) parts.push(['along', r.byDirection.along, m.whereLabel], ['across', r.byDirection.across, m.whereLabel]);
+      // Sub-bands follow their field, one row each, all directions pooled.
+      for (const bin of r.bins ?? []) parts.push(['all', bin, `${m.whereLabel}, ${bin.minUm}–${bin.maxUm} µm from the nearest bond interface`]);
+      for (const [direction, f, where] of parts) {
         out.push([
-          ...common, direction, describePattern(m.definition.pattern), r.countSymbol, r.rules.triplePoint, r.twinsExcluded, r.phase?.name ?? null, r.phase?.volumeFraction ?? null,
+          ...common.slice(0, 4), where, direction, describePattern(m.definition.pattern), r.countSymbol, r.rules.triplePoint, r.twinsExcluded, r.phase?.name ?? null, r.phase?.volumeFraction ?? null,
           ...tail, sig(f.lineLengthUm, 7), f.count, sig(f.perMm), sig(f.meanInterceptUm), tenth(f.g), tenth(f.gIso), null, null, null, null, null, null, null, null, ...end,
         ]);
       }

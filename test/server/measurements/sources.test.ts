@@ -52,6 +52,12 @@ describe('measurements: sub-bands by distance, V_V from a point count, stale aft
     expect(near, JSON.stringify(summary.intercepts.map((row: { where: string }) => row.where))).to.not.equal(undefined);
     expect(near).to.deep.include({ band: null, distanceUm: { min: 50, max: 75 }, direction: 'all', totalCount: 2 });
     expect(near.meanIntercept.mean).to.be.closeTo(75, 0.01);
+
+    const csv = await s.guest.get(`/api/projects/${s.projectId}/specimens/${s.specimenId}/measurements.csv`);
+    expectStatus(csv, 200);
+    const lines = String(csv.body).split(/\r?\n/).filter((l) => l.includes('µm from the nearest bond interface'));
+    expect(lines, 'one field-data row per sub-band').to.have.length(3);
+    expect(lines[2]).to.contain('50–75 µm from the nearest bond interface');
   });
 
   it('when sub-bands are asked for on an image without bond interfaces, or their edges do not rise, then 422 and nothing is stored', async () => {
