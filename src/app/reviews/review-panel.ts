@@ -7,6 +7,7 @@ import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/for
 import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { of } from 'rxjs';
 import type { FigureClearance, ReviewSnapshot, ReviewStatus, ReviewTransition } from '../../../shared/reviews';
 import { apiErrorMessage } from '../core/api-error-message';
 import { askToConfirm } from '../core/confirm-dialog';
@@ -14,7 +15,6 @@ import { remote } from '../core/remote';
 import { applyServerErrors } from '../core/server-errors';
 import { ValidationMessagePipe } from '../core/validation-message-pipe';
 import { formatPixelSizeXY } from '../archive/image-display';
-import { of } from 'rxjs';
 import { ReviewApi, type ReviewTarget } from './review-api';
 import { clearedFileLine, clearingBlocker, countOf, historyLine, moveLabel, reviewStateHint, reviewStateLabel, snapshotCounts } from './review-text';
 
