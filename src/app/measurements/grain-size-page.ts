@@ -13,7 +13,7 @@ import { PrintFrame } from './print-frame';
 import { MeasurementsApi } from './measurements-api';
 import { formatCount, formatG, formatLength, formatPercent, formatPlusMinusUm, formatUm } from './measure-units';
 import { methodNotes } from './method-notes';
-import { distanceBars, interceptBars, rowLabel } from './summary-plot-data';
+import { distanceBars, interceptBars, rowLabel, subBandLabel, subBandRows } from './summary-plot-data';
 
 /** Shown with every grain size summary (our wording of the research caution). */
 export const SUMMARY_CAUTION =
@@ -70,6 +70,17 @@ export default class GrainSizePage {
   protected readonly bars = computed(() => interceptBars((this.summary.value()?.intercepts ?? []).filter((r) => r.distanceUm === null)));
   /** l̄ per distance from the interfaces, when sub-bands were measured. */
   protected readonly distance = computed(() => distanceBars(this.summary.value()?.intercepts ?? []));
+  protected readonly distanceRows = computed(() =>
+    subBandRows(this.summary.value()?.intercepts ?? []).map((r) => ({
+      label: subBandLabel(r),
+      n: r.meanIntercept.n,
+      mean: formatUm(r.meanIntercept.mean, 2),
+      ci: formatPlusMinusUm(r.meanIntercept.ci95),
+      ra: formatPercent(r.meanIntercept.relativeAccuracyPct),
+      raWarning: r.meanIntercept.relativeAccuracyWarning,
+      g: formatG(r.g),
+    })),
+  );
   protected readonly method = computed(() => methodNotes(this.fields.value() ?? []));
   protected readonly caution = SUMMARY_CAUTION;
   protected readonly summaryCsv = computed(() => this.api.summaryCsvUrl(this.projectId(), this.specimenId()));

@@ -20,8 +20,10 @@ import { Breadcrumbs, type Crumb } from '../archive/breadcrumbs';
 import { ImageApi } from '../archive/image-api';
 import { ProjectApi } from '../projects/project-api';
 import { defaultRules, liveCounts, MARK_KIND_LABELS, markKindsFor, type DraftMark } from './mark-counts';
-import { bandFrame, bodyOf, DEFAULT_PATTERN, formOf, patternOf, type PatternForm } from './measure-draft';
-import { countedPieces, insidePlace, parseBinEdges, placeValue, pointCountChoices, regionChoices, subBandEdgeLines, whereOfPlace, type PlaceValue } from './measure-where';
+import { bodyOf, DEFAULT_PATTERN, formOf, patternOf, type PatternForm } from './measure-draft';
+import { detectorHint } from './measure-units';
+import { countedPieces, placeValue, pointCountChoices } from './measure-where';
+import { MeasurePlace } from './measure-place';
 import { MeasurementsApi } from './measurements-api';
 import { MeasureResult } from './measure-result';
 import { SavedMeasurements } from './saved-measurements';
@@ -61,19 +63,8 @@ export default class MeasurePage {
 
   protected readonly kind = signal<Kind>('intercept');
   protected readonly form = signal<PatternForm>(DEFAULT_PATTERN);
-  /** Where: 'image', 'band:n' or 'region:<outline id>'. */
-  protected readonly place = signal<PlaceValue>('image');
-  protected readonly where = computed(() => whereOfPlace(this.place()));
-  protected readonly band = computed(() => {
-    const w = this.where();
-    return w.type === 'band' ? w.band : 0;
-  });
-  protected readonly regionId = computed(() => {
-    const w = this.where();
-    return w.type === 'region' ? w.annotationId : null;
-  });
-  /** Sub-band edges as typed, e.g. "0, 20, 40, 60" (µm from the nearest bond interface). */
-  protected readonly binsText = signal('');
+  /** Where to measure: whole image, layer band or outlined region, and the sub-band edges. */
+  protected readonly at = new MeasurePlace(this.frame.value, computed(() => this.kind() === 'intercept'), computed(() => this.layUmPerPx()));
   /** Two-phase: count intercepts of one phase and divide by its volume fraction. */
   protected readonly twoPhase = signal(false);
   protected readonly phaseOfGrains = signal('');
@@ -108,30 +99,10 @@ export default class MeasurePage {
   protected readonly viewBox = computed(() => `0 0 ${this.size().w} ${this.size().h}`);
   protected readonly previewUrl = computed(() => this.imageApi.previewUrl(this.projectId(), this.imageId()));
   protected readonly viewerLink = computed(() => ['/projects', this.projectId(), 'images', this.imageId(), 'view']);
-  protected readonly bands = computed(() => {
-    const f = this.frame.value();
-    return f ? bandFrame(f.shapes, f.classes) : { interfaces: [], axis: 'x' as const, bands: [] };
-  });
-  protected readonly interfacePaths = computed(() => this.bands().interfaces.map((line) => line.map((p) => p.join(',')).join(' ')));
-  protected readonly regions = computed(() => {
-    const f = this.frame.value();
-    return f ? regionChoices(f.shapes, f.classes) : [];
-  });
-  protected readonly regionOutline = computed(() => this.regions().find((r) => r.id === this.regionId())?.ring.map((p) => p.join(',')).join(' ') ?? null);
-  private readonly inside = (p: Point) => insidePlace(this.where(), this.bands(), this.regions(), p);
-  protected readonly bins = computed(() => parseBinEdges(this.binsText()));
-  protected readonly binsOffered = computed(() => this.kind() === 'intercept' && this.bands().interfaces.length > 0);
-  /** The sub-band edges drawn on the image, dashed, within the chosen place. */
-  protected readonly subBandLines = computed(() => {
-    const edges = this.bins().edges;
-    const um = this.layUmPerPx();
-    if (!edges || !um || !this.binsOffered()) return [];
-    return subBandEdgeLines(this.bands(), edges, um, this.inside).map((l) => ({ edgeUm: l.edgeUm, points: l.points.map((p) => p.join(',')).join(' '), at: l.points[Math.floor(l.points.length / 2)]! }));
-  });
-  protected readonly pointCounts = computed(() => pointCountChoices(this.saved.value() ?? [], this.where()));
+  protected readonly pointCounts = computed(() => pointCountChoices(this.saved.value() ?? [], this.at.where()));
   /** The crossing finder: chosen by the person, defaulting to what fits how the image was made. */
   protected readonly detector = linkedSignal<CrossingDetector>(() => defaultDetector(this.image.value()?.modality ?? '') ?? 'valleys');
-  protected readonly detectorDefault = computed(() => defaultDetector(this.image.value()?.modality ?? ''));
+  protected readonly detectorHint = computed(() => detectorHint(this.image.value()?.modality ?? null, this.detector()));
   /** A reopened measurement keeps the pixel size it was computed at (the server lays its pattern at that size). */
   protected readonly layUmPerPx = computed(() => this.editing()?.pixelSize.umPerPx ?? this.umPerPx());
   protected readonly pattern = computed(() => patternOf(this.form(), this.size().w, this.size().h, this.layUmPerPx() ?? 1));
@@ -151,13 +122,13 @@ export default class MeasurePage {
   protected readonly lineCount = computed(() => this.storedPaths()?.length ?? this.testLines().length);
   protected readonly segments = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'segment'));
   /** With a band chosen, the parts of the straight lines that count are drawn bright over the faint full lines. */
-  protected readonly countedPieces = computed(() => countedPieces(this.testLines(), this.where(), this.bands(), this.regions()));
+  protected readonly countedPieces = computed(() => countedPieces(this.testLines(), this.at.where(), this.at.bands(), this.at.regions()));
   protected readonly circles = computed(() => this.testLines().map((l, i) => ({ i, l })).filter((x) => x.l.kind === 'circle'));
   protected readonly grid = computed(() => {
     const um = this.umPerPx();
     if (!um || this.kind() !== 'point_count' || !(this.gridSpacingUm() > 0)) return [];
     const pts = gridPoints(this.size().w, this.size().h, this.gridSpacingUm() / (this.layUmPerPx() ?? um));
-    return pts.length > 5000 ? [] : pts.filter((p) => this.inside(p));
+    return pts.length > 5000 ? [] : pts.filter((p) => this.at.inside(p));
   });
   protected readonly markKinds = computed(() => markKindsFor(this.form().type, this.rules()));
   protected readonly counts = computed(() => liveCounts(this.marks(), this.lineCount(), this.rules()));
@@ -192,7 +163,7 @@ export default class MeasurePage {
 
   protected chooseKind(kind: string): void {
     this.kind.set(kind as Kind);
-    if (kind === 'thickness' && this.band() === 0) this.place.set('band:1');
+    if (kind === 'thickness' && this.at.band() === 0) this.at.place.set('band:1');
     this.clearResult();
   }
 
@@ -210,10 +181,10 @@ export default class MeasurePage {
   }
 
   protected changePlace(value: string): void {
-    this.place.set(value);
+    this.at.place.set(value);
     this.patternDirty.set(true);
     this.phasePointCount.set('');
-    this.marks.update((ms) => ms.filter((m) => this.inside([m.x, m.y])));
+    this.marks.update((ms) => ms.filter((m) => this.at.inside([m.x, m.y])));
     this.pointMarks.set([]);
     this.clearResult();
   }
@@ -238,7 +209,7 @@ export default class MeasurePage {
       else this.removeMark(hit);
       return;
     }
-    const inside = (q: Point) => this.storedPaths() !== null || this.inside(q);
+    const inside = (q: Point) => this.storedPaths() !== null || this.at.inside(q);
     const snapped = snapToSegments(p, this.snapSegments(), reach, inside);
     if (!snapped) return;
     const [x, y] = snapped.point;
@@ -277,7 +248,7 @@ export default class MeasurePage {
     this.suggesting.set(true);
     this.errorText.set('');
     const detector = this.detector();
-    this.api.suggest(this.projectId(), this.imageId(), { pattern: this.pattern(), placement: { offsetPx: [0, 0] }, where: this.where(), detector }).subscribe({
+    this.api.suggest(this.projectId(), this.imageId(), { pattern: this.pattern(), placement: { offsetPx: [0, 0] }, where: this.at.where(), detector }).subscribe({
       next: (answer) => {
         const proposed: DraftMark[] = answer.marks.map((m) => ({ x: m.x, y: m.y, line: m.line, kind: m.kind, status: 'suggested' }));
         this.marks.update((ms) => [...ms.filter((m) => m.status === 'confirmed'), ...proposed]);
@@ -294,13 +265,13 @@ export default class MeasurePage {
 
   protected save(): void {
     const body = bodyOf({
-      kind: this.kind(), pattern: this.pattern(), band: this.band(), rules: this.rules(), marks: this.marks(),
+      kind: this.kind(), pattern: this.pattern(), band: this.at.band(), rules: this.rules(), marks: this.marks(),
       gridSpacingUm: this.gridSpacingUm(), phaseName: this.phaseName(), pointMarks: this.pointMarks(),
-      thicknessSpacingUm: this.thicknessSpacingUm(), note: '', regionId: this.regionId(),
-      distanceBinsUm: this.binsOffered() ? this.bins().edges : null, phase: this.phaseChoice(),
+      thicknessSpacingUm: this.thicknessSpacingUm(), note: '', regionId: this.at.regionId(),
+      distanceBinsUm: this.at.binsOffered() ? this.at.bins().edges : null, phase: this.phaseChoice(),
     });
-    if (this.binsOffered() && this.bins().error) {
-      this.errorText.set(this.bins().error);
+    if (this.at.binsOffered() && this.at.bins().error) {
+      this.errorText.set(this.at.bins().error);
       return;
     }
     const open = this.editing();
@@ -335,9 +306,9 @@ export default class MeasurePage {
   protected reopen(m: Measurement): void {
     const d = m.definition;
     this.kind.set(d.kind);
-    this.place.set(placeValue(d.where));
+    this.at.place.set(placeValue(d.where));
     if (d.kind === 'intercept') {
-      this.binsText.set(d.distanceBinsUm?.join(', ') ?? '');
+      this.at.binsText.set(d.distanceBinsUm?.join(', ') ?? '');
       this.twoPhase.set(d.phase !== null);
       this.phaseOfGrains.set(d.phase?.name ?? '');
       this.phasePointCount.set(d.phase?.pointCountId ?? '');

@@ -1,5 +1,7 @@
 /** Number formatting with units for the measuring pages; no Angular, so mocha can run it. */
 
+import { defaultDetector } from '../../../shared/measurements/crossings';
+
 const nbsp = '\u00a0';
 
 /** "12.3 µm", or an em dash when there is no value. Pure. */
@@ -49,4 +51,13 @@ export function formatPercent(value: number | null | undefined): string {
 /** µm per px with enough digits to recognise the calibration. Pure. */
 export function formatUmPerPx(value: number | null | undefined): string {
   return value === null || value === undefined ? 'uncalibrated' : `${Number(value.toPrecision(4))}${nbsp}µm/px`;
+}
+
+/** What the chosen crossing finder suits, and whether it is the one that fits how the image was made. Pure. */
+export function detectorHint(modality: string | null, chosen: 'valleys' | 'steps'): string {
+  const suits = chosen === 'valleys' ? 'Suits etched light micrographs and band-contrast maps, where boundaries are dark lines.' : 'Suits orientation and phase maps and BSE images, where grains are flat tones.';
+  const fitting = modality ? defaultDetector(modality) : null;
+  const kind = modality ? modality.replace(/_/g, ' ') : 'this image';
+  if (fitting === null) return `${suits} There is no usual choice for ${kind} images.`;
+  return fitting === chosen ? `${suits} This is the usual choice for ${kind} images.` : `${suits} ${kind[0]!.toUpperCase()}${kind.slice(1)} images are usually searched for ${fitting === 'valleys' ? 'dark boundary lines' : 'changes of colour or brightness'}.`;
 }

@@ -35,13 +35,21 @@ export function placeOfSubBand(row: Pick<InterceptSummary, 'where'>): string {
  * grouped by place and ordered outwards from the interface. Pure.
  */
 export function distanceBars(rows: readonly InterceptSummary[]): InterceptBar[] {
+  return subBandRows(rows).map((r) => {
+    const ci = r.meanIntercept.ci95 ?? 0;
+    return { label: subBandLabel(r), mean: r.meanIntercept.mean, low: Math.max(0, r.meanIntercept.mean - ci), high: r.meanIntercept.mean + ci };
+  });
+}
+
+/** The sub-band rows of a summary (all directions pooled), grouped by place and ordered outwards. Pure. */
+export function subBandRows(rows: readonly InterceptSummary[]): InterceptSummary[] {
   return rows
     .filter((r) => r.distanceUm !== null && r.direction === 'all' && r.meanIntercept.n > 0 && Number.isFinite(r.meanIntercept.mean))
     .slice()
-    .sort((a, b) => placeOfSubBand(a).localeCompare(placeOfSubBand(b)) || a.distanceUm!.min - b.distanceUm!.min || (a.phase ?? '').localeCompare(b.phase ?? ''))
-    .map((r) => {
-      const ci = r.meanIntercept.ci95 ?? 0;
-      const label = `${placeOfSubBand(r)} · ${r.distanceUm!.min}–${r.distanceUm!.max} µm${r.phase ? ` · ${r.phase}` : ''}`;
-      return { label, mean: r.meanIntercept.mean, low: Math.max(0, r.meanIntercept.mean - ci), high: r.meanIntercept.mean + ci };
-    });
+    .sort((a, b) => placeOfSubBand(a).localeCompare(placeOfSubBand(b)) || a.distanceUm!.min - b.distanceUm!.min || (a.phase ?? '').localeCompare(b.phase ?? ''));
+}
+
+/** "band 1 · 0–20 µm", with the phase when there is one. Pure. */
+export function subBandLabel(r: InterceptSummary): string {
+  return `${placeOfSubBand(r)} · ${r.distanceUm!.min}–${r.distanceUm!.max} µm${r.phase ? ` · ${r.phase}` : ''}`;
 }

@@ -16,6 +16,7 @@ import {
   subBandEdgeLines,
   whereOfPlace,
 } from '../../../../src/app/measurements/measure-where';
+import { detectorHint } from '../../../../src/app/measurements/measure-units';
 
 const classes: AnnotationClass[] = [
   { id: 'c-bond', projectId: 'p', name: 'Bond interface', colour: 'cobalt', shapeKind: 'line', usage: 0 },
@@ -113,5 +114,13 @@ describe('measurements client: where to measure, sub-bands, point counts for V_V
     };
     const body = bodyOf(draft);
     expect(body).to.deep.include({ where: { type: 'region', annotationId: 'zone' }, distanceBinsUm: [0, 20, 40], phase: { name: 'ferrite', pointCountId: 'd' } });
+  });
+});
+
+describe('measurements client: the crossing finder', () => {
+  it('says which finder is usual for the image and when the chosen one is not', () => {
+    expect(detectorHint('lom_bright_field', 'valleys')).to.contain('This is the usual choice for lom bright field images.');
+    expect(detectorHint('ebsd_orientation', 'valleys')).to.contain('Ebsd orientation images are usually searched for changes of colour or brightness.');
+    expect(detectorHint('sem_secondary', 'steps')).to.contain('There is no usual choice for sem secondary images.');
   });
 });
