@@ -28,7 +28,7 @@ const groupValue = (page: Page, group: string, label: string): Locator =>
     .filter({ has: page.locator('dt', { hasText: label }) })
     .locator('dd');
 
-describe('e2e: measuring inside an outlined region with sub-bands, and results that go stale when an interface is redrawn', function () {
+describe('e2e: measuring inside an outlined region with sub-bands, V_V from a saved point count, and results that go stale when an interface is redrawn', function () {
   this.timeout(120_000);
   let browser: Browser;
   let closeBrowser: () => Promise<void>;
@@ -143,6 +143,59 @@ describe('e2e: measuring inside an outlined region with sub-bands, and results t
     expectNoForeignRequests(app!);
   });
 
+  it('when a researcher counts intercepts of one phase in a region and takes V_V from the saved point count of that region, then l̄ is divided by it and the result names the count', async () => {
+    const { imageId } = await laminate('two-phase.tif', 7);
+    const zone = await scene.client.post(`/api/projects/${scene.project.id}/images/${imageId}/annotations`, {
+      classId: scene.classes['Deformation zone'], kind: 'rectangle', points: ZONE, label: 'ferrite patch',
+    });
+    expect(zone.status, JSON.stringify(zone.body)).to.equal(201);
+    // Grid 40 µm = 80 px centred on (450, 300): x 210, 290 … 690 (7) and y 220, 300, 380 (3) lie in the region: P_T = 21;
+    // the 7 points of the middle row marked inside → P_p = 1/3 (hand-computed; ASTM E562 P_p = P_i / P_T).
+    const marks = [210, 290, 370, 450, 530, 610, 690].map((x) => ({ x, y: 300, hit: 'inside' }));
+    const pc = await scene.client.post(`/api/projects/${scene.project.id}/images/${imageId}/measurements`, {
+      kind: 'point_count', grid: { spacingUm: 40 }, where: { type: 'region', annotationId: zone.body.id }, phaseName: 'ferrite', marks,
+    });
+    expect(pc.status, JSON.stringify(pc.body)).to.equal(201);
+    expect(pc.body.result.gridPoints).to.equal(21);
+
+    const { page } = app!;
+    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
+    await page.goto(app!.url(measurePath(scene.project.id, imageId)));
+    await expectText(page.getByRole('heading', { level: 1 }), 'Measure two-phase.tif');
+    await page.getByRole('combobox', { name: 'Where' }).selectOption({ label: 'Deformation zone · ferrite patch' });
+    await page.getByRole('combobox', { name: 'Line direction' }).selectOption('vertical');
+    await page.getByRole('spinbutton', { name: 'Number of lines' }).fill('1');
+    await page.getByRole('spinbutton', { name: 'Number of lines' }).dispatchEvent('change');
+    await page.getByRole('checkbox', { name: /Two-phase/ }).check();
+    expect(await page.getByRole('combobox', { name: 'Count' }).inputValue(), 'a two-phase count counts intercepts').to.equal('intercepts');
+    await page.getByRole('textbox', { name: 'Phase counted' }).fill('ferrite');
+    await page.getByRole('textbox', { name: 'Phase counted' }).dispatchEvent('change');
+    const source = page.getByRole('combobox', { name: 'Volume fraction from' });
+    await expectText(source.locator(`option[value="${pc.body.id}"]`), /^Point count · ferrite: P_p 33\.3\s*% on region “ferrite patch” \(version 1/);
+    await source.selectOption(pc.body.id);
+
+    // One line at x = 450 through the region: 260 px = 130 µm; two crossings by hand → N = 2.
+    const pattern = page.getByRole('img', { name: 'Test pattern over the micrograph' });
+    await expectCount(pattern.locator('line.test-line.counted'), 1);
+    const tally = page.getByRole('region', { name: 'Live counts' });
+    for (const [n, y] of [230, 350].entries()) {
+      await pattern.scrollIntoViewIfNeeded();
+      const box = (await pattern.boundingBox())!;
+      await page.mouse.click(box.x + (450 * box.width) / W, box.y + (y * box.height) / H);
+      await expectText(tally, `from ${n + 1} confirmed marks`);
+    }
+    await page.getByRole('button', { name: 'Save measurement' }).click();
+    await expectText(page.getByRole('heading', { name: /^Saved result/ }), 'region “ferrite patch”');
+    const card = page.locator('ef-measure-result');
+    // l̄α = V_V·L / N = (1/3)·130 µm / 2 = 21.67 µm (ASTM E112 two-phase note; hand-computed).
+    await expectText(card.locator('dl > div').filter({ has: page.locator('dt', { hasText: 'Mean lineal intercept l̄' }) }).locator('dd').first(), /21\.67\s*µm/);
+    await expectText(card, /Volume fraction of ferrite/);
+    await expectText(card, '0.333 (from the point count of ferrite on region “ferrite patch”, version 1)');
+    const [row] = await runningServer().ctx.dataSource.query('SELECT definition FROM measurements WHERE image_id = $1 AND kind = $2', [imageId, 'intercept']);
+    expect(row.definition.phase).to.deep.include({ name: 'ferrite', pointCountId: pc.body.id });
+    expectNoForeignRequests(app!);
+  });
+
   it('when the bond interface a saved band measurement used is redrawn, then the page says which line changed and recompute clears it, keeping the old result in the history', async () => {
     const { imageId, interfaceId } = await laminate('redrawn.tif', 6);
     const made = await scene.client.post(`/api/projects/${scene.project.id}/images/${imageId}/measurements`, {
@@ -165,6 +218,10 @@ describe('e2e: measuring inside an outlined region with sub-bands, and results t
     await saved.getByRole('button', { name: 'Recompute' }).click();
     await expectNoText(saved, 'was redrawn');
     await expectCount(saved.getByRole('button', { name: 'Recompute' }), 0);
+    await saved.getByRole('button', { name: 'Reopen' }).click();
+    // The old result stays on record: 3 × 300 px × 0.5 = 450 µm with P = 1 → l̄ 450 µm (hand-computed).
+    const earlier = page.getByRole('region', { name: 'Earlier results of this measurement' });
+    await expectText(earlier, /Version 1, replaced by a recompute .*l̄ = 450\.00\s*µm/);
 
     const rows = await runningServer().ctx.dataSource.query('SELECT version, result FROM measurements WHERE image_id = $1', [imageId]);
     expect(rows[0].version).to.equal(2);

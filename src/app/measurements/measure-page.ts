@@ -9,7 +9,7 @@ import { forkJoin } from 'rxjs';
 import type { Point } from '../../../shared/annotations/geometry';
 import { defaultDetector, type CrossingDetector } from '../../../shared/measurements/crossings';
 import type { CountRules, MarkKind } from '../../../shared/measurements/e112';
-import type { Measurement } from '../../../shared/measurements/measurement-records';
+import type { Measurement, MeasurementHistoryEntry } from '../../../shared/measurements/measurement-records';
 import type { PointMark } from '../../../shared/measurements/measurements';
 import { patternLines } from '../../../shared/measurements/patterns';
 import { gridPoints } from '../../../shared/measurements/point-count';
@@ -87,6 +87,8 @@ export default class MeasurePage {
   /** The measurement reopened for editing (PATCH with its version), or null for a new one. */
   protected readonly editing = signal<Measurement | null>(null);
   protected readonly result = signal<Measurement | null>(null);
+  /** Earlier results of the reopened measurement (loaded with it). */
+  protected readonly history = signal<MeasurementHistoryEntry[]>([]);
   /** Set once the pattern or where of a reopened measurement changes: the server then lays the pattern anew. */
   protected readonly patternDirty = signal(false);
 
@@ -288,6 +290,7 @@ export default class MeasurePage {
       next: (saved) => {
         this.result.set(saved);
         this.editing.set(saved);
+        this.loadHistory(saved);
         this.patternDirty.set(false);
         this.saving.set(false);
         this.saved.reload();
@@ -326,6 +329,7 @@ export default class MeasurePage {
     this.editing.set(m);
     this.patternDirty.set(false);
     this.result.set(m);
+    this.loadHistory(m);
     this.suggestNote.set('');
     this.errorText.set('');
   }
@@ -393,8 +397,20 @@ export default class MeasurePage {
     else this.removePointMark(existing);
   }
 
+  /** The history is read with the measurement's detail; a failure leaves the list empty (the result itself is shown). */
+  private loadHistory(m: Measurement): void {
+    this.history.set([]);
+    this.api.get(this.projectId(), this.imageId(), m.id).subscribe({
+      next: (detail) => {
+        if (this.editing()?.id === m.id) this.history.set(detail.history);
+      },
+      error: () => this.history.set([]),
+    });
+  }
+
   private clearResult(): void {
     this.result.set(null);
+    this.history.set([]);
     this.errorText.set('');
     this.fieldErrors.set({});
   }

@@ -1,11 +1,13 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import type { Measurement } from '../../../shared/measurements/measurement-records';
+import { DatePipe } from '@angular/common';
+import type { Measurement, MeasurementHistoryEntry } from '../../../shared/measurements/measurement-records';
 import { formatUmPerPx } from './measure-units';
-import { groupRows, resultRows } from './result-rows';
+import { groupRows, historyLine, resultRows } from './result-rows';
 
 /** The server's numbers for one saved measurement, with units and the sentences that belong beside them. */
 @Component({
   selector: 'ef-measure-result',
+  imports: [DatePipe],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <section class="card result" aria-labelledby="result-heading">
@@ -29,6 +31,16 @@ import { groupRows, resultRows } from './result-rows';
       @for (s of measurement().result.statements; track $index) {
         <p class="statement">{{ s }}</p>
       }
+      @if (history().length > 0) {
+        <section class="history" aria-labelledby="history-heading">
+          <h3 id="history-heading">Earlier results of this measurement</h3>
+          <ul>
+            @for (h of history(); track h.version + h.reason) {
+              <li>{{ line(h) }}, {{ h.replacedAt | date: 'medium' }}</li>
+            }
+          </ul>
+        </section>
+      }
     </section>
   `,
   styles: `
@@ -40,11 +52,18 @@ import { groupRows, resultRows } from './result-rows';
     dd { margin: 0; font: var(--mat-sys-title-medium); }
     .stale { color: var(--mat-sys-error); }
     .statement { margin: 8px 0 0; color: var(--mat-sys-on-surface-variant); }
+    .history ul { margin: 4px 0 0; padding-left: 20px; font: var(--mat-sys-body-small); }
   `,
 })
 export class MeasureResult {
   readonly measurement = input.required<Measurement>();
+  /** Results this measurement had before (edits, recomputes), newest first. */
+  readonly history = input<MeasurementHistoryEntry[]>([]);
 
   protected readonly groups = computed(() => groupRows(resultRows(this.measurement().result)));
   protected readonly pixel = computed(() => `${formatUmPerPx(this.measurement().pixelSize.umPerPx)} (${this.measurement().pixelSize.source})`);
+
+  protected line(h: MeasurementHistoryEntry): string {
+    return historyLine(h);
+  }
 }

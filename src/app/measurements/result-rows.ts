@@ -1,4 +1,4 @@
-import type { InterceptFigures, MeasurementResult } from '../../../shared/measurements/measurement-records';
+import type { InterceptFigures, MeasurementHistoryEntry, MeasurementResult } from '../../../shared/measurements/measurement-records';
 import { formatCount, formatG, formatLength, formatPerMm, formatUm } from './measure-units';
 
 /** One labelled number of a result, with its unit. */
@@ -77,4 +77,11 @@ export function groupRows(rows: readonly ResultRow[]): { title: string; rows: Re
     g.rows.push(row);
   }
   return groups;
+}
+
+const REASON_WORDS: Record<MeasurementHistoryEntry['reason'], string> = { edited: 'replaced by an edit', recomputed: 'replaced by a recompute', deleted: 'deleted' };
+
+/** One earlier result: "Version 1, replaced by a recompute (Ana): P = 3, l̄ = 130.00 µm, G = 2.6 at 0.5 µm/px". Pure. */
+export function historyLine(h: MeasurementHistoryEntry): string {
+  return `Version ${h.version}, ${REASON_WORDS[h.reason]} (${h.replacedByName}): ${resultGist(h.result)} at ${Number(h.umPerPx.toPrecision(6))}\u00a0µm/px`;
 }

@@ -1,7 +1,7 @@
 import { expect } from 'chai';
 import { fieldResult } from '../../../../shared/measurements/e112';
 import type { InterceptFigures, InterceptResult, PointCountResult, ThicknessResult } from '../../../../shared/measurements/measurement-records';
-import { groupRows, resultGist, resultRows } from '../../../../src/app/measurements/result-rows';
+import { groupRows, historyLine, resultGist, resultRows } from '../../../../src/app/measurements/result-rows';
 
 const NB = '\u00a0';
 
@@ -130,5 +130,13 @@ describe('client: result rows, sub-bands and a phase volume fraction', () => {
     expect(row.value).to.equal('0.333 (from the point count of ferrite on band 1, version 2)');
     const typed = resultRows(intercept({ countSymbol: 'N', phase: { ...phase, volumeFraction: 0.4, pointCount: null } })).find((r) => r.sub === 'V')!;
     expect(typed.value).to.equal('0.400 (typed in)');
+  });
+});
+
+describe('client: result rows, the history of a measurement', () => {
+  it('reads an earlier result with why it was replaced, by whom, and at which pixel size', () => {
+    const line = historyLine({ version: 1, reason: 'recomputed', umPerPx: 0.25, pixelSizeSource: 'user', result: intercept(), replacedAt: '2026-01-01T00:00:00Z', replacedByName: 'Ana' });
+    // 62.5 over 2.5 mm: l̄ 40 µm, G 6.0 (TRADE primer [C] anchor).
+    expect(line).to.equal(`Version 1, replaced by a recompute (Ana): P = 62.5, l̄ = 40.00${NB}µm, G = 6.0 at 0.25${NB}µm/px`);
   });
 });
