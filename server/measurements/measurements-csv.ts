@@ -58,9 +58,10 @@ export function summaryCsv(s: SpecimenMeasurementSummary): string {
 
 /**
  * GET …/measurements.csv: every field, one row per direction for crossed lines, with how it was measured.
- * `specimenCode` names the specimen of every row, or of each row when the rows span specimens.
+ * `specimenCode` names the specimen of every row, or of each row when the rows span specimens; `isStale`
+ * says whether a row's result is out of date (by default: its pixel size changed).
  */
-export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), rows: readonly Measurement[]): string {
+export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), rows: readonly Measurement[], isStale: (m: Measurement) => boolean = pixelSizeChanged): string {
   const specimenOf = typeof specimenCode === 'string' ? () => specimenCode : specimenCode;
   const header = [
     'Specimen', 'Image', 'Measurement id', 'Kind', 'Where', 'Direction', 'Pattern', 'Count type', 'Triple point value', 'Twins excluded',
@@ -72,7 +73,7 @@ export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), r
   for (const m of rows) {
     const r = m.result;
     const common: Cell[] = [specimenOf(m), m.image.originalName, m.id, m.kind, m.whereLabel];
-    const tail: Cell[] = [formatUmPerPx(m.umPerPx), m.pixelSizeSource, staleness(m.umPerPx, m.image.pixelSizeUm) !== null];
+    const tail: Cell[] = [formatUmPerPx(m.umPerPx), m.pixelSizeSource, isStale(m)];
     const end: Cell[] = [m.author.displayName, m.computedAt.toISOString()];
     if (r.kind === 'intercept' && m.definition.kind === 'intercept') {
       const parts: [string, InterceptFigures, string][] = [[r.direction, r, m.whereLabel]];
@@ -92,6 +93,11 @@ export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), r
     }
   }
   return table(header, out);
+}
+
+/** Stale by pixel size alone, for callers that have not read the image's current shapes. */
+function pixelSizeChanged(m: Measurement): boolean {
+  return staleness(m.umPerPx, m.image.pixelSizeUm) !== null;
 }
 
 function describePattern(p: Extract<Measurement['definition'], { kind: 'intercept' }>['pattern']): string {

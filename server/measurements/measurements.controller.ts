@@ -56,7 +56,7 @@ export class MeasurementsController {
   };
   fieldsCsv: RequestHandler = async (req, res) => {
     const { specimen, rows } = await this.summaries.fields(p(req, 'projectId'), p(req, 'specimenId'));
-    sendCsv(res, `measurements-${specimen.code}.csv`, fieldsCsv(specimen.code, rows));
+    sendCsv(res, `measurements-${specimen.code}.csv`, fieldsCsv(specimen.code, rows, await this.summaries.staleTest(rows)));
   };
 }
 

@@ -47,10 +47,15 @@ export class SummaryService {
     return { specimen, rows };
   }
 
+  /** Whether each row's result is out of date: pixel size, or the shapes and point count it used (read once for all rows). */
+  async staleTest(rows: readonly Measurement[]): Promise<(m: Measurement) => boolean> {
+    const now = await currentShapes(this.ctx.dataSource.manager, rows.map((m) => m.imageId));
+    return (m) => staleness(m.umPerPx, m.image.pixelSizeUm, sourceChanges(m.layout.sources, m.imageId, now)) !== null;
+  }
+
   async summary(projectId: string, specimenId: string): Promise<SpecimenMeasurementSummary> {
     const { specimen, rows } = await this.fields(projectId, specimenId);
-    const now = await currentShapes(this.ctx.dataSource.manager, rows.map((m) => m.imageId));
-    const stale = (m: Measurement) => staleness(m.umPerPx, m.image.pixelSizeUm, sourceChanges(m.layout.sources, m.imageId, now)) !== null;
+    const stale = await this.staleTest(rows);
     type Place = { where: string; band: number | null; distanceUm: { min: number; max: number } | null };
     const intercepts = new Map<string, Place & { direction: Direction; phase: string | null; entries: (Entry & { figures: InterceptFigures; symbol: 'P' | 'N' })[] }>();
     const points = new Map<string, { where: string; phaseName: string; entries: (Entry & { gridPoints: number })[] }>();

@@ -132,6 +132,10 @@ describe('measurements: sub-bands by distance, V_V from a point count, stale aft
     expect(listed[0].stale.changes).to.have.length(1);
     const summary = (await s.guest.get(`/api/projects/${s.projectId}/specimens/${s.specimenId}/measurements/summary`)).body;
     expect(summary.intercepts[0].staleFields).to.equal(1);
+    const csv = String((await s.guest.get(`/api/projects/${s.projectId}/specimens/${s.specimenId}/measurements.csv`)).body).split(/\r?\n/);
+    // Columns …, Pixel size (µm/px), Pixel size source, Stale, … (the pixel size itself did not change).
+    expect(csv[0]).to.contain('Pixel size (µm/px),Pixel size source,Stale,');
+    expect(csv[1], 'the field data CSV marks the row stale').to.contain(',0.5,user,yes,');
 
     const fresh = await s.researcher.post(`${url}/recompute`, { version: 1 });
     expectStatus(fresh, 200);
@@ -145,6 +149,24 @@ describe('measurements: sub-bands by distance, V_V from a point count, stale aft
     expect(history[0].result.lineLengthUm).to.be.closeTo(1125, 1e-6);
     const [activity] = await sql<{ summary: string }>(`SELECT summary FROM activity_events WHERE image_id = $1 AND action = 'measurement.updated' ORDER BY seq DESC LIMIT 1`, [s.imageId]);
     expect(activity!.summary).to.contain('after 1 change to what it used');
+  });
+
+  it('when the phase has neither a volume fraction nor a point count, or names a measurement that is not a point count, then 422 and nothing is stored', async () => {
+    const { s, zone } = await scene();
+    const other = await s.researcher.post(measurementsPath(s, s.imageId), { kind: 'intercept', pattern: vertical, where: { type: 'region', annotationId: zone } });
+    expectStatus(other, 201);
+    const before = await measurementState(s.imageId);
+    const intercepts = { count: 'intercepts', triplePoint: 1.5 };
+    const bare = await s.researcher.post(measurementsPath(s, s.imageId), { kind: 'intercept', pattern: vertical, rules: intercepts, phase: { name: 'ferrite' } });
+    expectStatus(bare, 422);
+    expect(bare.body.error.details[0]).to.deep.equal({ field: 'body.phase.volumeFraction', message: 'Give the volume fraction of the phase, or choose a saved point count that measured it.' });
+    const notCount = await s.researcher.post(measurementsPath(s, s.imageId), {
+      kind: 'intercept', pattern: vertical, where: { type: 'region', annotationId: zone }, rules: intercepts, phase: { name: 'ferrite', pointCountId: other.body.id },
+    });
+    expectStatus(notCount, 422);
+    expect(notCount.body.error.details[0].field).to.equal('body.phase.pointCountId');
+    expect(notCount.body.error.details[0].message).to.contain('No saved point count with this id on this image');
+    expect(await measurementState(s.imageId)).to.deep.equal(before);
   });
 
   it('when a new bond interface is drawn or the region outline is deleted, then the measurement names the change; a deleted region cannot be recomputed', async () => {
