@@ -114,6 +114,7 @@ describe('e2e: measuring inside an outlined region with sub-bands, V_V from a sa
     await page.mouse.click(outside.x, outside.y);
     await page.waitForTimeout(300);
     await expectText(tally, 'from 3 confirmed marks');
+    await expectText(tally.getByRole('list', { name: 'Counts per sub-band' }), /0–20 µm: 1\s*20–40 µm: 1\s*40–60 µm: 1/);
 
     await page.getByRole('button', { name: 'Save measurement' }).click();
     await expectText(page.getByRole('heading', { name: /^Saved result/ }), 'region “near bond”');

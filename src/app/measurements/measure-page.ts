@@ -22,7 +22,7 @@ import { ProjectApi } from '../projects/project-api';
 import { defaultRules, liveCounts, MARK_KIND_LABELS, markKindsFor, type DraftMark } from './mark-counts';
 import { bodyOf, DEFAULT_PATTERN, formOf, patternOf, type PatternForm } from './measure-draft';
 import { detectorHint } from './measure-units';
-import { countedPieces, placeValue, pointCountChoices } from './measure-where';
+import { countedPieces, countsPerSubBand, placeValue, pointCountChoices } from './measure-where';
 import { MeasurePlace } from './measure-place';
 import { MeasurementsApi } from './measurements-api';
 import { MeasureResult } from './measure-result';
@@ -135,6 +135,13 @@ export default class MeasurePage {
   protected readonly markKinds = computed(() => markKindsFor(this.form().type, this.rules()));
   protected readonly counts = computed(() => liveCounts(this.marks(), this.lineCount(), this.rules()));
   protected readonly countSymbol = computed(() => (this.rules().count === 'intercepts' ? 'N' : 'P'));
+  /** Live counts per sub-band, when sub-band edges are set. */
+  protected readonly perSubBand = computed(() => {
+    const edges = this.at.bins().edges;
+    const um = this.layUmPerPx();
+    if (!edges || !um || !this.at.binsOffered()) return [];
+    return countsPerSubBand(this.marks(), this.at.bands().interfaces, edges, um, this.rules()).map((b) => ({ ...b, text: formatCount(b.count) }));
+  });
   protected readonly perLine = computed(() => this.counts().perLine.map((v, i) => ({ line: i, text: formatCount(v) })));
   protected readonly totalText = computed(() => formatCount(this.counts().total));
   protected readonly pointTally = computed(() => {

@@ -1,6 +1,8 @@
 import type { Annotation, AnnotationClass } from '../../../shared/annotations/annotations';
 import type { Point } from '../../../shared/annotations/geometry';
-import { clipSegmentToBand, inBand } from '../../../shared/measurements/layers';
+import { clipSegmentToBand, distanceToPolyline, inBand } from '../../../shared/measurements/layers';
+import { markValue, type CountRules } from '../../../shared/measurements/e112';
+import type { DraftMark } from './mark-counts';
 import type { Measurement } from '../../../shared/measurements/measurement-records';
 import type { WhereSpec } from '../../../shared/measurements/measurements';
 import { circlePoints, clipSegmentToRing, pointInRing, type TestLine } from '../../../shared/measurements/patterns';
@@ -166,4 +168,20 @@ export function pointCountChoices(saved: readonly Measurement[], where: WhereSpe
       const r = m.result as Extract<Measurement['result'], { kind: 'point_count' }>;
       return { id: m.id, label: `${r.phaseName}: P_p ${(r.pointFraction * 100).toFixed(1)} % on ${m.whereLabel} (version ${m.version}, ${m.authorName})`, fraction: r.pointFraction };
     });
+}
+
+/**
+ * The live count per sub-band: confirmed marks by their distance from the nearest interface, with the
+ * server's rule for a mark on an edge (it belongs to the farther sub-band; the last keeps its outer edge). Pure.
+ */
+export function countsPerSubBand(marks: readonly DraftMark[], interfaces: readonly (readonly Point[])[], edgesUm: readonly number[], umPerPx: number, rules: CountRules): { minUm: number; maxUm: number; count: number }[] {
+  const distances = marks
+    .filter((m) => m.status === 'confirmed')
+    .map((m) => ({ m, d: interfaces.reduce((best, l) => Math.min(best, distanceToPolyline([m.x, m.y], l)), Infinity) * umPerPx }));
+  return edgesUm.slice(1).map((maxUm, i) => {
+    const minUm = edgesUm[i]!;
+    const last = i === edgesUm.length - 2;
+    const count = distances.filter(({ d }) => d >= minUm && (d < maxUm || (last && d <= maxUm))).reduce((sum, { m }) => sum + markValue(m.kind, rules), 0);
+    return { minUm, maxUm, count };
+  });
 }

@@ -6,6 +6,7 @@ import { patternLines } from '../../../../shared/measurements/patterns';
 import { bandFrame, bodyOf, DEFAULT_PATTERN, type DraftDefinition } from '../../../../src/app/measurements/measure-draft';
 import {
   countedPieces,
+  countsPerSubBand,
   evenEdges,
   insidePlace,
   offsetPolyline,
@@ -122,5 +123,26 @@ describe('measurements client: the crossing finder', () => {
     expect(detectorHint('lom_bright_field', 'valleys')).to.contain('This is the usual choice for lom bright field images.');
     expect(detectorHint('ebsd_orientation', 'valleys')).to.contain('Ebsd orientation images are usually searched for changes of colour or brightness.');
     expect(detectorHint('sem_secondary', 'steps')).to.contain('There is no usual choice for sem secondary images.');
+  });
+});
+
+describe('measurements client: live counts per sub-band', () => {
+  it('sorts confirmed marks into sub-bands by distance from the nearest interface, an edge mark to the farther one', () => {
+    // Interface at y = 300, 0.5 µm/px: marks 10 px (5 µm), 40 px (20 µm, on the edge), 120 px (60 µm, the outer edge) away,
+    // a triple point 70 px (35 µm) away counting 1½, and a suggestion that does not count (hand-computed; E112 mark values).
+    const rules = { count: 'intersections' as const, triplePoint: 1.5 };
+    const marks = [
+      { x: 100, y: 310, line: 0, kind: 'crossing' as const, status: 'confirmed' as const },
+      { x: 100, y: 260, line: 0, kind: 'crossing' as const, status: 'confirmed' as const },
+      { x: 100, y: 420, line: 0, kind: 'crossing' as const, status: 'confirmed' as const },
+      { x: 100, y: 230, line: 0, kind: 'triple_point' as const, status: 'confirmed' as const },
+      { x: 100, y: 305, line: 0, kind: 'crossing' as const, status: 'suggested' as const },
+    ];
+    const bins = countsPerSubBand(marks, frame.interfaces, [0, 20, 40, 60], 0.5, rules);
+    expect(bins).to.deep.equal([
+      { minUm: 0, maxUm: 20, count: 1 },
+      { minUm: 20, maxUm: 40, count: 2.5 },
+      { minUm: 40, maxUm: 60, count: 1 },
+    ]);
   });
 });
