@@ -1,12 +1,13 @@
 import { HttpClient, HttpHeaders } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { Observable } from 'rxjs';
+import { from, Observable, of, switchMap } from 'rxjs';
 import type { AlignmentBody, ImageAlignment } from '../../../shared/alignments';
 import type { Annotation, AnnotationBody, AnnotationClass, AnnotationClassBody, UpdateAnnotationBody } from '../../../shared/annotations/annotations';
 import type { CalibrationChange, DrawnCalibrationBody } from '../../../shared/calibration';
 import type { ImageRecord, ImageSummary } from '../../../shared/images';
 import type { Page } from '../../../shared/paging';
 import type { ProjectDetail } from '../../../shared/projects';
+import { takeEarly } from './head-start';
 
 /** Everything the viewer asks of the server: the image and its files, its annotations, classes and calibration. */
 @Injectable({ providedIn: 'root' })
@@ -17,8 +18,12 @@ export class ViewerApi {
     return this.http.get<ProjectDetail>(`/api/projects/${enc(projectId)}`);
   }
 
+  /** The record, from the request main.ts started early when there is one (see head-start.ts). */
   image(projectId: string, imageId: string): Observable<ImageRecord> {
-    return this.http.get<ImageRecord>(imageUrl(projectId, imageId));
+    const url = imageUrl(projectId, imageId);
+    const asked = this.http.get<ImageRecord>(url);
+    const early = takeEarly<ImageRecord>(url);
+    return early ? from(early).pipe(switchMap((record) => (record ? of(record) : asked))) : asked;
   }
 
   /** Other images filed at the same location (for side-by-side viewing). */

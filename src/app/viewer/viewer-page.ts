@@ -215,7 +215,8 @@ export default class ViewerPage implements OnDestroy {
   private comparePane: ComparePane | null = null;
   private interaction: ViewerInteraction | null = null;
   private resizeObserver: ResizeObserver | null = null;
-  private readonly stageReady = signal(false);
+  /** The konva stage is mounted (the side panels wait for it, see the template). */
+  protected readonly stageReady = signal(false);
   private mounting = false;
   private editing: { key: string; points: Coordinates } | null = null;
   private draft: ShapeDraft | null = null;
@@ -387,8 +388,7 @@ export default class ViewerPage implements OnDestroy {
     if (!s || !v) return;
     this.selectedKey.set(key);
     this.tool.set('select');
-    this.stopFlight();
-    this.stopFlight = fly(v, viewportForBounds(v, s.bounds), (next) => this.setView(next));
+    this.glideTo(viewportForBounds(v, s.bounds));
   }
 
   /** From the pin list or the canvas: focus the thread and fly the view to its pin. */
@@ -398,8 +398,7 @@ export default class ViewerPage implements OnDestroy {
     const img = this.image();
     this.pins.focused.set(threadId);
     if (!pin || !v || !img) return;
-    this.stopFlight();
-    this.stopFlight = fly(v, viewportForBounds(v, pinFrame(pin, img)), (next) => this.setView(next));
+    this.glideTo(viewportForBounds(v, pinFrame(pin, img)));
   }
 
   protected pinStarted(threadId: string): void {
@@ -548,6 +547,17 @@ export default class ViewerPage implements OnDestroy {
     if (this.canAnnotate() && kind && this.kinds().includes(kind)) this.tool.set(tool);
   }
 
+  /** Glides to `target`; if the canvas changes size on the way, each step keeps its centre at the new size. */
+  private glideTo(target: Viewport): void {
+    const from = this.view();
+    if (!from) return;
+    this.stopFlight();
+    this.stopFlight = fly(from, target, (next) => {
+      const now = this.view();
+      this.setView(now && (now.width !== next.width || now.height !== next.height) ? resizeViewport(next, now.width, now.height) : next);
+    });
+  }
+
   private setView(v: Viewport): void {
     const img = this.image();
     const next = img ? keepInView(v, img) : v;
@@ -622,7 +632,8 @@ export default class ViewerPage implements OnDestroy {
     });
     this.resizeObserver.observe(host);
     this.view.set(v);
-    this.stageReady.set(true);
+    // One frame later: the stage's first frame asks for the tiles before the side panels lay out.
+    requestAnimationFrame(() => this.stageReady.set(true));
   }
 
   private finished(result: FinishedDraft): void {
