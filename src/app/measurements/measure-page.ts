@@ -23,6 +23,7 @@ import { defaultRules, liveCounts, MARK_KIND_LABELS, markKindsFor, type DraftMar
 import { bodyOf, DEFAULT_PATTERN, formOf, patternOf, type PatternForm } from './measure-draft';
 import { detectorHint } from './measure-units';
 import { countedPieces, countsPerSubBand, placeValue, pointCountChoices } from './measure-where';
+import { MeasurePhase } from './measure-phase';
 import { MeasurePlace } from './measure-place';
 import { MeasurementsApi } from './measurements-api';
 import { MeasureResult } from './measure-result';
@@ -65,12 +66,8 @@ export default class MeasurePage {
   protected readonly form = signal<PatternForm>(DEFAULT_PATTERN);
   /** Where to measure: whole image, layer band or outlined region, and the sub-band edges. */
   protected readonly at = new MeasurePlace(this.frame.value, computed(() => this.kind() === 'intercept'), computed(() => this.layUmPerPx()));
-  /** Two-phase: count intercepts of one phase and divide by its volume fraction. */
-  protected readonly twoPhase = signal(false);
-  protected readonly phaseOfGrains = signal('');
-  /** The saved point count that gives V_V, or '' to type V_V in. */
-  protected readonly phasePointCount = signal('');
-  protected readonly typedFraction = signal(0.5);
+  /** Two-phase: intercepts of one phase divided by its volume fraction. */
+  protected readonly grainsPhase = new MeasurePhase();
   protected readonly rules = signal<CountRules>(defaultRules('lines'));
   protected readonly markKind = signal<MarkKind>('crossing');
   protected readonly marks = signal<DraftMark[]>([]);
@@ -192,7 +189,7 @@ export default class MeasurePage {
   protected changePlace(value: string): void {
     this.at.place.set(value);
     this.patternDirty.set(true);
-    this.phasePointCount.set('');
+    this.grainsPhase.pointCountId.set('');
     this.marks.update((ms) => ms.filter((m) => this.at.inside([m.x, m.y])));
     this.pointMarks.set([]);
     this.clearResult();
@@ -277,7 +274,7 @@ export default class MeasurePage {
       kind: this.kind(), pattern: this.pattern(), band: this.at.band(), rules: this.rules(), marks: this.marks(),
       gridSpacingUm: this.gridSpacingUm(), phaseName: this.phaseName(), pointMarks: this.pointMarks(),
       thicknessSpacingUm: this.thicknessSpacingUm(), note: '', regionId: this.at.regionId(),
-      distanceBinsUm: this.at.binsOffered() ? this.at.bins().edges : null, phase: this.phaseChoice(),
+      distanceBinsUm: this.at.binsOffered() ? this.at.bins().edges : null, phase: this.grainsPhase.body(),
     });
     if (this.at.binsOffered() && this.at.bins().error) {
       this.errorText.set(this.at.bins().error);
@@ -319,10 +316,7 @@ export default class MeasurePage {
     this.at.place.set(placeValue(d.where));
     if (d.kind === 'intercept') {
       this.at.binsText.set(d.distanceBinsUm?.join(', ') ?? '');
-      this.twoPhase.set(d.phase !== null);
-      this.phaseOfGrains.set(d.phase?.name ?? '');
-      this.phasePointCount.set(d.phase?.pointCountId ?? '');
-      if (d.phase?.volumeFraction !== undefined) this.typedFraction.set(d.phase.volumeFraction);
+      this.grainsPhase.restore(d.phase);
       this.form.set(formOf(d.pattern));
       this.rules.set(d.rules ?? defaultRules(d.pattern.type));
       this.marks.set(d.marks.map((k) => ({ x: k.x, y: k.y, line: k.line, kind: k.kind, status: k.status })));
@@ -378,15 +372,8 @@ export default class MeasurePage {
 
   /** Two-phase on or off: a two-phase count counts intercepts N of its phase (E112). */
   protected chooseTwoPhase(on: boolean): void {
-    this.twoPhase.set(on);
+    this.grainsPhase.on.set(on);
     if (on) this.rules.update((r) => ({ ...r, count: 'intercepts' }));
-  }
-
-  /** The phase part of the request: a saved point count when one is chosen, else the V_V typed in. */
-  private phaseChoice(): { name: string; volumeFraction?: number; pointCountId?: string } | null {
-    if (!this.twoPhase()) return null;
-    const name = this.phaseOfGrains().trim();
-    return this.phasePointCount() ? { name, pointCountId: this.phasePointCount() } : { name, volumeFraction: this.typedFraction() };
   }
 
   protected removePointMark(index: number): void {
