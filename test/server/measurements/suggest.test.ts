@@ -124,6 +124,28 @@ describe('measurements: suggested crossings from the original pixels, through th
     expect(res.body.perLine.filter((l: { samples: number }) => l.samples > 0)).to.have.length(5); // rows 25.5 … 245.5 lie above y = 300 (hand-computed)
   });
 
+  it('when an outlined region is chosen and the other finder named, then the suggestions lie inside the outline and say which finder made them', async () => {
+    const s = await archiveScene(app.url);
+    const imageId = await uploaded(s, await etchedMicrograph(labels, W, H, 8), 'zoned.png', 'lom_bright_field');
+    await addDefaultAnnotationClasses(runningServer().ctx.dataSource.manager, s.project.id);
+    const classes = (await s.client.get(`/api/projects/${s.project.id}/annotation-classes`)).body as { id: string; name: string }[];
+    const zone = classes.find((c) => c.name === 'Deformation zone')!.id;
+    const outline = await s.client.post(`/api/projects/${s.project.id}/images/${imageId}/annotations`, { classId: zone, kind: 'polygon', points: [[200, 100], [700, 100], [700, 500], [200, 500]] });
+    expectStatus(outline, 201);
+    const res = await s.client.post(`/api/projects/${s.project.id}/images/${imageId}/measurements/suggest`, {
+      ...ROW_PATTERN, where: { type: 'region', annotationId: outline.body.id }, detector: 'steps',
+    });
+    expectStatus(res, 200);
+    expect(res.body.detector, 'the named finder, not the light-micrograph default').to.equal('steps');
+    expect(res.body.marks.length).to.be.greaterThan(0);
+    for (const m of res.body.marks as { x: number; y: number }[]) {
+      expect(m.x).to.be.within(200, 700);
+      expect(m.y).to.be.within(100, 500);
+    }
+    // Rows 135.5 … 465.5 cross the outline: 7 of the 11 (hand-computed from y = 25.5 + 55k).
+    expect(res.body.perLine.filter((l: { samples: number }) => l.samples > 0)).to.have.length(7);
+  });
+
   it('when a typical 2048 × 1536 field is searched along 10 + 10 lines, then the answer comes within 10 s and reports its time', async () => {
     const s = await archiveScene(app.url);
     const [w, h] = [2048, 1536];
