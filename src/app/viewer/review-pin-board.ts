@@ -4,7 +4,8 @@ import type { CommentThread } from '../../../shared/reviews';
 import { remote } from '../core/remote';
 import type { CommentDraft } from '../reviews/comment-box';
 import { ReviewApi } from '../reviews/review-api';
-import { pinsFromThreads, type PinAnchor } from './review-pins';
+import type { Point } from '../../../shared/annotations/geometry';
+import { pinsFromThreads, pinUnder, type PinAnchor } from './review-pins';
 
 /**
  * The comment threads of the image in the viewer, as pins: loaded once the image is known, the
@@ -23,10 +24,21 @@ export class ReviewPinBoard {
   readonly focused = signal<string | null>(null);
   /** Bumped when the side list's own copy of the threads must load again. */
   readonly listVersion = signal(0);
+  /** A pin just drawn, waiting for the first comment of its thread. */
+  readonly draft = signal<PinAnchor | null>(null);
+  /** The side panel's tab title, with the open threads counted. */
+  readonly tabLabel = computed(() => (this.openCount() > 0 ? `Comments (${this.openCount()})` : 'Comments'));
 
   show(projectId: string, imageId: string): void {
     const current = this.subject();
     if (current?.projectId !== projectId || current.imageId !== imageId) this.subject.set({ projectId, imageId });
+  }
+
+  /** Focuses the pin under `p` (`unit`: image px per screen px); false when there is none. */
+  focusAt(p: Point, unit: number): boolean {
+    const id = pinUnder(this.pins(), p, unit);
+    if (id) this.focused.set(id);
+    return id !== null;
   }
 
   /** Threads changed in the side list (resolved, reopened, replied): reload the pins. */

@@ -1,5 +1,6 @@
 import { distance, type Point } from '../../../shared/annotations/geometry';
 import type { CommentThread, ThreadAnchor } from '../../../shared/reviews';
+import { imageToScreen, type Viewport } from '../../../shared/viewer/viewport';
 import { boundsOf, pointInRing, type Bounds } from './hit-test';
 
 /**
@@ -70,6 +71,21 @@ export function pinFrame(pin: ViewPin, image: { width: number; height: number })
 export function anchorFromDraft(points: readonly Point[]): PinAnchor {
   if (points.length === 1) return { kind: 'point', at: [round(points[0]![0]), round(points[0]![1])] };
   return { kind: 'region', ring: points.map(([x, y]) => [round(x), round(y)] as [number, number]) };
+}
+
+/** Screen px: the new-thread card's size, for keeping it inside the canvas. */
+const CARD = { width: 356, height: 260 };
+
+/** Where the card for a new thread goes: below and right of the pin (a region's lower right corner), inside the canvas. */
+export function cardNear(v: Viewport, anchor: PinAnchor): { x: number; y: number } {
+  const at = anchor.kind === 'point' ? anchor.at : boundsCorner(anchor.ring);
+  const s = imageToScreen(v, at[0], at[1]);
+  return { x: Math.max(8, Math.min(s.x + 12, v.width - CARD.width)), y: Math.max(8, Math.min(s.y + 12, v.height - CARD.height)) };
+}
+
+function boundsCorner(ring: readonly Point[]): Point {
+  const b = boundsOf(ring);
+  return [b.maxX, b.maxY];
 }
 
 /** Tenths of a pixel: finer than anyone can point, coarser than floating-point noise. */

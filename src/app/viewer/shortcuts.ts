@@ -1,4 +1,5 @@
-import type { DrawTool } from './shape-draft';
+import type { AnnotationKind } from '../../../shared/annotations/annotations';
+import { KIND_OF_TOOL, type DrawTool } from './shape-draft';
 
 /**
  * The viewer's keyboard scheme, one table read by the key handler and by the help panel. Pure.
@@ -120,6 +121,25 @@ export const TOOL_HINTS: Record<ViewerTool, string> = {
   pin: 'Click to pin a comment to a point, or drag a box around a region; then write the comment.',
   calibrate: 'Drag along a stage micrometer or a burned-in scale bar, then enter its true length.',
 };
+
+/** What the person may do on this image (from the roles matrix, as the project tells the client). */
+export interface ToolRights {
+  annotate: boolean;
+  calibrate: boolean;
+  comment: boolean;
+}
+
+/**
+ * Whether `tool` can be picked: select always; calibrate and the comment pin by their rights; a
+ * drawing tool when the person may annotate and the chosen class takes its shape (`kinds`).
+ */
+export function mayPickTool(tool: ViewerTool, rights: ToolRights, kinds: readonly AnnotationKind[]): boolean {
+  if (tool === 'select') return true;
+  if (tool === 'calibrate') return rights.calibrate;
+  if (tool === 'pin') return rights.comment;
+  const kind = KIND_OF_TOOL[tool];
+  return rights.annotate && kind !== null && kinds.includes(kind);
+}
 
 /** Whether a key press belongs to a text field or a list the focus is in, rather than to the viewer. */
 export function isTypingTarget(target: EventTarget | null): boolean {

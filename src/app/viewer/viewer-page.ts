@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, computed, effect, ElementRef, injec
 import { MatButton, MatIconButton } from '@angular/material/button';
 import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
-import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatOption, MatSelect } from '@angular/material/select';
 import { MatTab, MatTabGroup } from '@angular/material/tabs';
@@ -31,14 +30,15 @@ import { linkedByMicrometres } from './linked-view';
 import { cursorReadout } from './measurements';
 import type { MicrographStage } from './micrograph-stage';
 import { draftOverlay, selectionOverlay } from './overlay-content';
+import { NoteCard } from './note-card';
 import { OverviewMap } from './overview-map';
 import { PinCard } from './pin-card';
 import { ReviewPinBoard } from './review-pin-board';
-import { anchorFromDraft, pinFrame, pinUnder, type PinAnchor } from './review-pins';
+import { anchorFromDraft, cardNear, pinFrame } from './review-pins';
 import { ScaleBar } from './scale-bar';
 import { KIND_OF_TOOL, type FinishedDraft, type ShapeDraft } from './shape-draft';
 import { ShortcutHelp } from './shortcut-help';
-import { actionForKey, isTypingTarget, TOOL_HINTS, type ShortcutAction, type ViewerTool } from './shortcuts';
+import { actionForKey, isTypingTarget, mayPickTool, TOOL_HINTS, type ShortcutAction, type ToolRights, type ViewerTool } from './shortcuts';
 import { isNeutralTone, NEUTRAL_TONE, toneTransfer, type Tone } from './tone';
 import { ToolRail } from './tool-rail';
 import { fly } from './view-flight';
@@ -66,7 +66,6 @@ const ZOOM_STEP = 1.5;
     MatFormField,
     MatIcon,
     MatIconButton,
-    MatInput,
     MatLabel,
     MatOption,
     MatProgressBar,
@@ -74,6 +73,7 @@ const ZOOM_STEP = 1.5;
     MatTab,
     MatTabGroup,
     MatTooltip,
+    NoteCard,
     OverviewMap,
     PinCard,
     RouterLink,
@@ -110,7 +110,7 @@ export default class ViewerPage implements OnDestroy {
   readonly thread = input<string | undefined>();
   private readonly canvasHost = viewChild<ElementRef<HTMLDivElement>>('canvasHost');
   private readonly stageHost = viewChild<ElementRef<HTMLDivElement>>('stageHost');
-  private readonly noteInput = viewChild<ElementRef<HTMLInputElement>>('noteInput');
+  private readonly noteCard = viewChild(NoteCard);
   private readonly compareHost = viewChild<ElementRef<HTMLDivElement>>('compareHost');
   private readonly compareStageHost = viewChild<ElementRef<HTMLDivElement>>('compareStageHost');
 
@@ -128,6 +128,7 @@ export default class ViewerPage implements OnDestroy {
   protected readonly canCalibrate = computed(() => this.allowed().has('editMetadata'));
   protected readonly canEditClasses = computed(() => this.allowed().has('editProject'));
   protected readonly canComment = computed(() => this.allowed().has('comment'));
+  private readonly rights = computed<ToolRights>(() => ({ annotate: this.canAnnotate(), calibrate: this.canCalibrate(), comment: this.canComment() }));
   protected readonly members = computed<Mentionable[]>(() =>
     (this.project.value()?.members ?? []).map((m) => ({ id: m.userId, name: m.displayName, email: m.email })),
   );
@@ -159,26 +160,17 @@ export default class ViewerPage implements OnDestroy {
   protected readonly toneCurve = computed(() => toneTransfer(this.tone()));
   protected readonly helpOpen = signal(false);
   protected readonly calibrationLine = signal<Coordinates | null>(null);
-  protected readonly note = signal<{ at: Point; text: string } | null>(null);
-  /** A comment pin just drawn, waiting for its first comment. */
-  protected readonly pinDraft = signal<PinAnchor | null>(null);
+  /** Where a note was just placed, waiting for its text. */
+  protected readonly notePin = signal<{ at: Point } | null>(null);
   protected readonly pinCardPosition = computed(() => {
-    const a = this.pinDraft();
+    const a = this.pins.draft();
     const v = this.view();
-    if (!a || !v) return null;
-    const [x, y] = a.kind === 'point' ? a.at : a.kind === 'region' ? a.ring[2]! : [0, 0];
-    const s = imageToScreen(v, x, y);
-    // Kept inside the canvas, so a pin near the right or bottom edge still shows its card.
-    return { x: Math.max(8, Math.min(s.x + 12, v.width - 356)), y: Math.max(8, Math.min(s.y + 12, v.height - 260)) };
+    return a && v ? cardNear(v, a) : null;
   });
   /** The side panel's tab: 0 annotations, 1 comments, 2 image, 3 display. */
   protected readonly sideTab = signal(0);
-  protected readonly commentsLabel = computed(() => {
-    const open = this.pins.openCount();
-    return open > 0 ? `Comments (${open})` : 'Comments';
-  });
   protected readonly notePosition = computed(() => {
-    const n = this.note();
+    const n = this.notePin();
     const v = this.view();
     return n && v ? imageToScreen(v, n.at[0], n.at[1]) : null;
   });
@@ -304,18 +296,17 @@ export default class ViewerPage implements OnDestroy {
     this.comparePane?.setFilter(filter);
   });
 
-  /** A tool the chosen class cannot take falls back to selecting. */
+  /** A tool the chosen class (or a changed right) no longer allows falls back to selecting. */
   private readonly keepToolFitting = effect(() => {
     const tool = this.tool();
-    const kind = tool === 'select' || tool === 'calibrate' ? null : KIND_OF_TOOL[tool];
-    if (kind && !this.kinds().includes(kind)) this.tool.set('select');
+    if (this.project.value() && !mayPickTool(tool, this.rights(), this.kinds())) this.tool.set('select');
   });
 
   private readonly dropDraftOnToolChange = effect(() => {
     this.tool();
     untracked(() => {
       this.interaction?.toolChanged();
-      this.note.set(null);
+      this.notePin.set(null);
     });
   });
 
@@ -329,9 +320,6 @@ export default class ViewerPage implements OnDestroy {
       if (other && host && stageHost && ready && !this.comparePane) this.openComparePane(other, host, stageHost);
     });
   });
-
-  /** The note field takes the keyboard as soon as it opens. */
-  private readonly focusNote = effect(() => this.noteInput()?.nativeElement.focus({ preventScroll: true }));
 
   private readonly colourById = computed(() => new Map(this.classes().map((c) => [c.id, ANNOTATION_COLOURS[c.colour]])));
 
@@ -402,13 +390,9 @@ export default class ViewerPage implements OnDestroy {
   }
 
   protected pinStarted(threadId: string): void {
-    this.pinDraft.set(null);
+    this.pins.draft.set(null);
     this.pins.focused.set(threadId);
     this.sideTab.set(1);
-  }
-
-  protected cancelPin(): void {
-    this.pinDraft.set(null);
   }
 
   protected changeShape(change: { key: string; state: ShapeState }): void {
@@ -443,20 +427,11 @@ export default class ViewerPage implements OnDestroy {
     this.calibrationLine.set(null);
   }
 
-  protected saveNote(): void {
-    const n = this.note();
-    const img = this.image();
-    if (!n || !img) return;
-    this.addShape({ classId: this.classId(), kind: 'text', points: [[n.at[0], n.at[1]]], label: n.text.trim() });
-    if (!this.problem()) this.note.set(null);
-  }
-
-  protected cancelNote(): void {
-    this.note.set(null);
-  }
-
-  protected setNoteText(text: string): void {
-    this.note.update((n) => (n ? { ...n, text } : n));
+  protected saveNote(text: string): void {
+    const n = this.notePin();
+    if (!n || !this.image()) return;
+    this.addShape({ classId: this.classId(), kind: 'text', points: [[n.at[0], n.at[1]]], label: text });
+    if (!this.problem()) this.notePin.set(null);
   }
 
   protected undo(): void {
@@ -516,7 +491,7 @@ export default class ViewerPage implements OnDestroy {
       case 'delete':
         return this.deleteSelected();
       case 'finish':
-        if (this.note()) return this.saveNote();
+        if (this.noteCard()) return this.noteCard()!.add();
         return this.interaction?.finishDraft();
       case 'removeLast':
         this.interaction?.removeLastPoint();
@@ -524,8 +499,8 @@ export default class ViewerPage implements OnDestroy {
       case 'cancel':
         if (this.interaction?.cancelDraft()) return;
         if (this.helpOpen()) return this.helpOpen.set(false);
-        if (this.note()) return this.note.set(null);
-        if (this.pinDraft()) return this.pinDraft.set(null);
+        if (this.notePin()) return this.notePin.set(null);
+        if (this.pins.draft()) return this.pins.draft.set(null);
         if (this.calibrationLine()) return this.calibrationLine.set(null);
         return this.selectedKey.set(null);
       case 'help':
@@ -534,17 +509,7 @@ export default class ViewerPage implements OnDestroy {
   }
 
   private chooseTool(tool: ViewerTool): void {
-    if (tool === 'calibrate') {
-      if (this.canCalibrate()) this.tool.set(tool);
-      return;
-    }
-    if (tool === 'select') return this.tool.set(tool);
-    if (tool === 'pin') {
-      if (this.canComment()) this.tool.set(tool);
-      return;
-    }
-    const kind = KIND_OF_TOOL[tool];
-    if (this.canAnnotate() && kind && this.kinds().includes(kind)) this.tool.set(tool);
+    if (mayPickTool(tool, this.rights(), this.kinds())) this.tool.set(tool);
   }
 
   /** Glides to `target`; if the canvas changes size on the way, each step keeps its centre at the new size. */
@@ -643,11 +608,11 @@ export default class ViewerPage implements OnDestroy {
       return;
     }
     if (result.tool === 'pin') {
-      this.pinDraft.set(anchorFromDraft(result.points));
+      this.pins.draft.set(anchorFromDraft(result.points));
       return;
     }
     if (result.tool === 'text') {
-      this.note.set({ at: result.points[0]!, text: '' });
+      this.notePin.set({ at: result.points[0]! });
       return;
     }
     this.addShape({ classId: this.classId(), kind: KIND_OF_TOOL[result.tool]!, points: result.points, label: '' });
@@ -655,11 +620,9 @@ export default class ViewerPage implements OnDestroy {
 
   /** A press of the select tool on a comment pin shows its thread in the side panel. */
   private pressPin(p: Point, unit: number): boolean {
-    const id = pinUnder(this.pins.pins(), p, unit);
-    if (!id) return false;
-    this.pins.focused.set(id);
-    this.sideTab.set(1);
-    return true;
+    const hit = this.pins.focusAt(p, unit);
+    if (hit) this.sideTab.set(1);
+    return hit;
   }
 
   /** Checks a new shape as the server will, then shows and saves it. */
