@@ -7,6 +7,7 @@ import { SamplesService } from '../archive/samples.service';
 import { SpecimensService } from '../archive/specimens.service';
 import { MaterialsService } from '../archive/materials.service';
 import { fieldsCsv } from '../measurements/measurements-csv';
+import { SummaryService } from '../measurements/summary.service';
 import { measurementsWithContext } from './measurements-of';
 
 type Cell = string | number | boolean | null | undefined;
@@ -63,7 +64,8 @@ export async function writeProjectExport(ctx: AppContext, projectId: string, out
   for (const image of images) {
     zip.append(JSON.stringify(await geojson.export(projectId, String(image['id'])), null, 1), { name: `annotations/${image['id']}.geojson` });
   }
-  zip.append(fieldsCsv((m) => m.image.specimen.code, await measurementsWithContext(ds.manager, projectId)), { name: 'measurements.csv' });
+  const measured = await measurementsWithContext(ds.manager, projectId);
+  zip.append(fieldsCsv((m) => m.image.specimen.code, measured, await new SummaryService(ctx).staleTest(measured)), { name: 'measurements.csv' });
 
   const threads = await ds.query(
     `SELECT t.id, t.image_id, t.figure_id, t.anchor_kind, t.anchor, t.measurement_id, t.status, t.created_at, t.resolved_at,
@@ -86,7 +88,8 @@ export async function writeProjectExport(ctx: AppContext, projectId: string, out
       'catalogue.json    materials, samples (stack, route and what it implies), specimens and locations',
       'images.csv        every image with its pixel size and where that came from; sha256 identifies the original file',
       'annotations/      one GeoJSON (RFC 7946) file per image; coordinates are full-resolution image pixels, x right, y down',
-      'measurements.csv  every measured field with its method, counts, units and the pixel size used',
+      'measurements.csv  every measured field with its method, counts, units and the pixel size used; Stale = yes when the',
+      '                  pixel size, or the interfaces, region outline or point count it used, changed after it was computed',
       'comments.json     review threads (on an image, or on a figure and its panels) and their comments',
       'history.csv       who did what, and when',
       '',

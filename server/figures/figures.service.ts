@@ -11,6 +11,7 @@ import { AppError } from '../http/app-error';
 import { measurementsWithContext } from '../exports/measurements-of';
 import { Image } from '../images/image.entity';
 import { fieldsCsv } from '../measurements/measurements-csv';
+import { SummaryService } from '../measurements/summary.service';
 import { specOf } from '../reviews/freeze-figure';
 import { returnFigureToDraftIfCleared } from '../reviews/return-to-draft';
 import { FigureExport } from './figure-export.entity';
@@ -121,7 +122,7 @@ export class FiguresService {
     const figure = await this.find(this.ds.manager, projectId, figureId);
     const rows = await measurementsWithContext(this.ds.manager, projectId, [...new Set(figure.spec.panels.map((p) => p.imageId))]);
     const name = `${figure.title.replace(/[^\p{L}\p{N}._-]+/gu, '_').slice(0, 80)}_measurements.csv`;
-    return { name, body: fieldsCsv((m) => m.image.specimen.code, rows) };
+    return { name, body: fieldsCsv((m) => m.image.specimen.code, rows, await new SummaryService(this.ctx).staleTest(rows)) };
   }
 
   /** Review state of each figure that has one (the rest are drafts nobody submitted). */

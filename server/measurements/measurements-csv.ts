@@ -1,6 +1,6 @@
 import type { AcrossFields, InterceptFigures, SpecimenMeasurementSummary } from '../../shared/measurements/measurement-records';
 import { RESEARCH_CAUTION } from '../../shared/measurements/measurements';
-import { formatUmPerPx, staleness } from './measurement.mapper';
+import { formatUmPerPx } from './measurement.mapper';
 import type { Measurement } from './measurement.entity';
 
 /**
@@ -59,9 +59,10 @@ export function summaryCsv(s: SpecimenMeasurementSummary): string {
 /**
  * GET …/measurements.csv: every field, one row per direction for crossed lines, with how it was measured.
  * `specimenCode` names the specimen of every row, or of each row when the rows span specimens; `isStale`
- * says whether a row's result is out of date (by default: its pixel size changed).
+ * says whether a row's result is out of date: pass `SummaryService.staleTest`, so every
+ * table of results (summary, this CSV, the project ZIP, the CSV behind a figure) agrees.
  */
-export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), rows: readonly Measurement[], isStale: (m: Measurement) => boolean = pixelSizeChanged): string {
+export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), rows: readonly Measurement[], isStale: (m: Measurement) => boolean): string {
   const specimenOf = typeof specimenCode === 'string' ? () => specimenCode : specimenCode;
   const header = [
     'Specimen', 'Image', 'Measurement id', 'Kind', 'Where', 'Direction', 'Pattern', 'Count type', 'Triple point value', 'Twins excluded',
@@ -93,11 +94,6 @@ export function fieldsCsv(specimenCode: string | ((m: Measurement) => string), r
     }
   }
   return table(header, out);
-}
-
-/** Stale by pixel size alone, for callers that have not read the image's current shapes. */
-function pixelSizeChanged(m: Measurement): boolean {
-  return staleness(m.umPerPx, m.image.pixelSizeUm) !== null;
 }
 
 function describePattern(p: Extract<Measurement['definition'], { kind: 'intercept' }>['pattern']): string {
