@@ -8,6 +8,7 @@ import { SpecimensService } from '../archive/specimens.service';
 import { MaterialsService } from '../archive/materials.service';
 import { fieldsCsv } from '../measurements/measurements-csv';
 import { SummaryService } from '../measurements/summary.service';
+import { alignmentsOf } from './alignments-of';
 import { measurementsWithContext } from './measurements-of';
 
 type Cell = string | number | boolean | null | undefined;
@@ -22,8 +23,9 @@ const csv = (header: string[], rows: Cell[][]) => `\uFEFF${[header, ...rows].map
 
 /**
  * The project's supplementary data as one ZIP: catalogue, image metadata, annotations as GeoJSON,
- * measurements, comments and the history. The originals are not included (they can be many gigabytes;
- * each row names its SHA-256 so a reader can match the files they were given).
+ * alignments of co-located images, measurements, comments and the history. The originals are not
+ * included (they can be many gigabytes; each row names its SHA-256 so a reader can match the files
+ * they were given).
  */
 export async function writeProjectExport(ctx: AppContext, projectId: string, out: Writable): Promise<void> {
   const ds = ctx.dataSource;
@@ -64,6 +66,8 @@ export async function writeProjectExport(ctx: AppContext, projectId: string, out
   for (const image of images) {
     zip.append(JSON.stringify(await geojson.export(projectId, String(image['id'])), null, 1), { name: `annotations/${image['id']}.geojson` });
   }
+  const names = new Map(images.map((i) => [String(i['id']), String(i['original_name'])]));
+  zip.append(JSON.stringify(await alignmentsOf(ds.manager, projectId, names), null, 2), { name: 'alignments.json' });
   const measured = await measurementsWithContext(ds.manager, projectId);
   zip.append(fieldsCsv((m) => m.image.specimen.code, measured, await new SummaryService(ctx).staleTest(measured)), { name: 'measurements.csv' });
 
@@ -88,6 +92,9 @@ export async function writeProjectExport(ctx: AppContext, projectId: string, out
       'catalogue.json    materials, samples (stack, route and what it implies), specimens and locations',
       'images.csv        every image with its pixel size and where that came from; sha256 identifies the original file',
       'annotations/      one GeoJSON (RFC 7946) file per image; coordinates are full-resolution image pixels, x right, y down',
+      'alignments.json   how one image of a location lies on another: the matching points as clicked (full-resolution pixels',
+      '                  of each image), the transform fitted from them, taking (x, y) on the other image to',
+      '                  (a·x + c·y + e, b·x + d·y + f) on the image, how far each pair misses (px), who saved it and when',
       'measurements.csv  every measured field with its method, counts, units and the pixel size used; Stale = yes when the',
       '                  pixel size, or the interfaces, region outline or point count it used, changed after it was computed',
       'comments.json     review threads (on an image, or on a figure and its panels) and their comments',
