@@ -66,9 +66,11 @@ export class SummaryService {
         const where = m.definition.where;
         const band = where.type === 'band' ? where.band : null;
         const place: Place = { where: m.whereLabel, band, distanceUm: where.type === 'band' && 'distanceUm' in where ? (where.distanceUm ?? null) : null };
-        const parts: [Place, Direction, InterceptFigures][] = [[place, r.direction, r]];
-        if (r.byDirection) parts.push([place, 'along', r.byDirection.along], [place, 'across', r.byDirection.across]);
-        // Each sub-band is a field of its own group, pooled with sub-bands measured alone at the same distances.
+        // A sub-band measured alone belongs with the sub-bands of whole fields at the same distances: all its
+        // lines pooled, like theirs. A layer or region keeps a row per direction.
+        const parts: [Place, Direction, InterceptFigures][] = place.distanceUm ? [[place, 'all', r]] : [[place, r.direction, r]];
+        if (r.byDirection && !place.distanceUm) parts.push([place, 'along', r.byDirection.along], [place, 'across', r.byDirection.across]);
+        // Each sub-band of a whole field is a field of its own group; the whole field counts once, in its layer's rows.
         for (const bin of r.bins ?? []) parts.push([{ where: `${m.whereLabel}, ${bin.minUm}–${bin.maxUm} µm from the nearest bond interface`, band, distanceUm: { min: bin.minUm, max: bin.maxUm } }, 'all', bin]);
         for (const [at, direction, figures] of parts) {
           const phase = r.phase?.name ?? null;
