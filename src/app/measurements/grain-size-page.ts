@@ -13,7 +13,7 @@ import { PrintFrame } from './print-frame';
 import { MeasurementsApi } from './measurements-api';
 import { formatCount, formatG, formatLength, formatPercent, formatPlusMinusUm, formatUm } from './measure-units';
 import { methodNotes } from './method-notes';
-import { distanceBars, interceptBars, rowLabel, subBandLabel, subBandRows } from './summary-plot-data';
+import { distanceBars, interceptBars, layerRows, rowLabel, subBandLabel, subBandRows } from './summary-plot-data';
 
 /** Shown with every grain size summary (our wording of the research caution). */
 export const SUMMARY_CAUTION =
@@ -48,8 +48,9 @@ export default class GrainSizePage {
     ),
   );
 
+  /** Layers and directions only: sub-bands are in the distance table below, not counted twice. */
   protected readonly rows = computed(() =>
-    (this.summary.value()?.intercepts ?? []).map((r) => ({
+    layerRows(this.summary.value()?.intercepts ?? []).map((r) => ({
       label: rowLabel(r),
       n: r.meanIntercept.n,
       mean: formatUm(r.meanIntercept.mean, 2),
@@ -66,8 +67,8 @@ export default class GrainSizePage {
       ],
     })),
   );
-  protected readonly anyRaWarning = computed(() => this.rows().some((r) => r.raWarning));
-  protected readonly bars = computed(() => interceptBars((this.summary.value()?.intercepts ?? []).filter((r) => r.distanceUm === null)));
+  protected readonly anyRaWarning = computed(() => [...this.rows(), ...this.distanceRows()].some((r) => r.raWarning));
+  protected readonly bars = computed(() => interceptBars(layerRows(this.summary.value()?.intercepts ?? [])));
   /** l̄ per distance from the interfaces, when sub-bands were measured. */
   protected readonly distance = computed(() => distanceBars(this.summary.value()?.intercepts ?? []));
   protected readonly distanceRows = computed(() =>

@@ -15,6 +15,14 @@ export function rowLabel(row: Pick<InterceptSummary, 'where' | 'direction' | 'ph
   return `${row.where} · ${DIRECTION_WORDS[row.direction]}${row.phase ? ` · ${row.phase}` : ''}`;
 }
 
+/**
+ * The rows of the main table and plot: one per layer (or whole image, region) and direction, each field in it
+ * once with its whole totals. Sub-band rows have a table of their own (`subBandRows`). Pure.
+ */
+export function layerRows(rows: readonly InterceptSummary[]): InterceptSummary[] {
+  return rows.filter((r) => r.distanceUm === null);
+}
+
 /** Bars for the plot: one per band and direction; a single field has no interval, so its bar is the mean alone. Pure. */
 export function interceptBars(rows: readonly InterceptSummary[]): InterceptBar[] {
   return rows

@@ -1,6 +1,6 @@
 import { expect } from 'chai';
 import type { AcrossFields, InterceptSummary } from '../../../../shared/measurements/measurement-records';
-import { distanceBars, interceptBars, placeOfSubBand, rowLabel } from '../../../../src/app/measurements/summary-plot-data';
+import { distanceBars, interceptBars, layerRows, placeOfSubBand, rowLabel, subBandRows } from '../../../../src/app/measurements/summary-plot-data';
 
 const across = (n: number, mean: number, ci95: number | null): AcrossFields => ({ n, mean, s: null, ci95, relativeAccuracyPct: null, relativeAccuracyWarning: false });
 const row = (where: string, direction: InterceptSummary['direction'], meanIntercept: AcrossFields, phase: string | null = null): InterceptSummary => ({
@@ -72,5 +72,24 @@ describe('client: the plot across the distance from the interfaces', () => {
     expect(bars[0]).to.deep.include({ mean: 12, low: 10.5, high: 13.5 });
     expect(bars[2]).to.deep.include({ mean: 10, low: 10, high: 10 });
     expect(placeOfSubBand({ where: 'region “a, b”, 0–20 µm from the nearest bond interface' })).to.equal('region “a, b”');
+  });
+});
+
+describe('client: the main table and the distance table of the summary', () => {
+  it('puts each layer and direction in the main table and each sub-band in the distance table, none in both', () => {
+    // A band counted whole with sub-bands comes back as its layer rows plus one row per sub-band (summary.service.ts).
+    const sub = (min: number, max: number): InterceptSummary => ({
+      ...row(`band 2, ${min}–${max} µm from the nearest bond interface`, 'all', across(2, 40 + min, 4)),
+      band: 2,
+      distanceUm: { min, max },
+    });
+    const rows = [{ ...row('band 2', 'along', across(3, 60, 5)), band: 2 }, { ...row('band 2', 'across', across(3, 45, 5)), band: 2 }, sub(0, 20), sub(20, 40)];
+
+    const main = layerRows(rows).map(rowLabel);
+    const byDistance = subBandRows(rows).map((r) => r.where);
+
+    expect(main).to.deep.equal(['band 2 · along', 'band 2 · across']);
+    expect(byDistance).to.deep.equal(['band 2, 0–20 µm from the nearest bond interface', 'band 2, 20–40 µm from the nearest bond interface']);
+    expect(interceptBars(layerRows(rows)).map((b) => b.label)).to.deep.equal(main);
   });
 });
