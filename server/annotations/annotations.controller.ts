@@ -27,10 +27,10 @@ export class AnnotationsController {
     res.status(201).json(await this.classes.create(p(req, 'projectId'), req.body as AnnotationClassBody));
   };
   updateClass: RequestHandler = async (req, res) => {
-    res.json(await this.classes.update(p(req, 'projectId'), p(req, 'classId'), req.body as AnnotationClassBody));
+    res.json(await this.classes.update(currentUser(req), p(req, 'projectId'), p(req, 'classId'), req.body as AnnotationClassBody));
   };
   deleteClass: RequestHandler = async (req, res) => {
-    await this.classes.remove(p(req, 'projectId'), p(req, 'classId'), (req.query as { moveTo?: string }).moveTo);
+    await this.classes.remove(currentUser(req), p(req, 'projectId'), p(req, 'classId'), (req.query as { moveTo?: string }).moveTo);
     res.status(204).end();
   };
 

@@ -63,6 +63,34 @@ export async function returnFiguresShowingImage(m: EntityManager, imageId: strin
   return returned;
 }
 
+/**
+ * A change to an annotation class (its name or colour, or its deletion) changes every figure panel that
+ * draws the class: shape colours and legend text. Cleared figures with such a panel go back to draft.
+ * `onImages` narrows it to panels showing those images (a class that takes over moved shapes changes only
+ * panels of images that had some). `change` names it for people, e.g. "renamed the annotation class “A” to “B”".
+ * Review rows are locked by id, as `returnFiguresShowingImage` does.
+ */
+export async function returnFiguresDrawingClass(m: EntityManager, classId: string, actorId: string, change: string, onImages: readonly string[] | null = null): Promise<string[]> {
+  const rows: { subject_id: string; project_id: string; state: string; title: string }[] = await m.query(
+    `SELECT r.subject_id, r.project_id, r.state, f.title
+       FROM review_states r JOIN figures f ON f.id = r.figure_id
+      WHERE r.subject_type = 'figure'
+        AND EXISTS (SELECT 1 FROM jsonb_array_elements(f.spec->'panels') p
+                     WHERE p->'classIds' @> jsonb_build_array($1::text)
+                       AND ($2::text[] IS NULL OR p->>'imageId' = ANY($2::text[])))
+      ORDER BY r.subject_id
+      FOR UPDATE OF r`,
+    [classId, onImages],
+  );
+  const returned: string[] = [];
+  for (const row of rows.filter((r) => r.state === 'cleared')) {
+    const note = `${change}, drawn in a panel`;
+    await backToDraft(m, { type: 'figure', id: row.subject_id }, row.project_id, actorId, note, `${note}, after the figure “${row.title}” was cleared; it is a draft again`);
+    returned.push(row.subject_id);
+  }
+  return returned;
+}
+
 /** An edit of a cleared figure's own definition (layout, panels, print size) returns it to draft. */
 export async function returnFigureToDraftIfCleared(m: EntityManager, figureId: string, actorId: string): Promise<boolean> {
   const [review]: { project_id: string; state: string; title: string }[] = await m.query(
