@@ -141,6 +141,13 @@ describe('e2e: measuring inside an outlined region with sub-bands, V_V from a sa
     await expectText(first.locator('td').nth(0), '1');
     await expectText(first.locator('td').nth(1), /120\.00\s*µm/);
     await expectCount(byDistance.locator('canvas'), 1);
+    // The table per layer and direction has the field once, with its whole totals (3 intersections on 390 µm), and no sub-band.
+    const layers = page.getByRole('table', { name: /^Mean lineal intercept per layer band and direction/ });
+    await expectCount(layers.locator('tbody th'), 1);
+    await expectText(layers.locator('tbody th').first(), /^region “near bond” · /);
+    await expectText(layers.locator('tbody td').nth(0), '1');
+    await expectText(layers.locator('tbody td').nth(5), /^3 P on 390/);
+    await expectNoText(layers, 'µm from the nearest bond interface');
     expectNoForeignRequests(app!);
   });
 
