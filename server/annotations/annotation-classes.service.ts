@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { KINDS_FOR_SHAPE, type AnnotationClass as AnnotationClassDto, type AnnotationClassBody } from '../../shared/annotations/annotations';
 import type { AppContext } from '../app-context';
 import { AppError } from '../http/app-error';
-import { returnFiguresDrawingClass } from '../reviews/return-to-draft';
+import { returnFiguresDrawingClass, returnToDraftIfCleared } from '../reviews/return-to-draft';
 import { AnnotationClass } from './annotation-class.entity';
 import { Annotation } from './annotation.entity';
 import { toAnnotationClassDto } from './annotation.mapper';
@@ -75,6 +75,8 @@ export class AnnotationClassesService {
         await returnFiguresDrawingClass(m, classId, user.id, change);
         await returnFiguresDrawingClass(m, target.id, user.id, change, images);
         await m.update(Annotation, { classId }, { classId: target.id, version: () => 'version + 1' });
+        // The moved shapes changed class on their images: a cleared image holding some is a draft again (locked in id order).
+        for (const imageId of [...images].sort()) await returnToDraftIfCleared(m, imageId, user.id, 'the annotations', { figures: false });
       } else {
         // Unused, but a panel may still list it: its legend loses the entry.
         await returnFiguresDrawingClass(m, classId, user.id, `deleted the annotation class “${cls.name}”`);

@@ -20,8 +20,9 @@ export type ReviewedPart = 'the pixel size' | 'the annotations' | 'the measureme
  * at the same moment are ordered: either the snapshot sees the edit, or the edit reopens the image.
  * Returns whether the image went back to draft.
  */
-export async function returnToDraftIfCleared(m: EntityManager, imageId: string, actorId: string, what: ReviewedPart): Promise<boolean> {
-  await returnFiguresShowingImage(m, imageId, actorId, what);
+export async function returnToDraftIfCleared(m: EntityManager, imageId: string, actorId: string, what: ReviewedPart, options = { figures: true }): Promise<boolean> {
+  // A caller that knows better which figures changed (a class change) passes figures: false.
+  if (options.figures) await returnFiguresShowingImage(m, imageId, actorId, what);
   const [review]: { project_id: string; state: string }[] = await m.query(
     `SELECT project_id, state FROM review_states WHERE subject_type = 'image' AND subject_id = $1 FOR UPDATE`,
     [imageId],

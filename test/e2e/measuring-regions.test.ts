@@ -4,7 +4,7 @@ import { TEST_PASSWORD } from '../support/fixtures';
 import { runningServer } from '../support/test-server';
 import { explainFailure, freshApp, type WatchedApp } from './support/app-session';
 import { launchBrowser, signInThroughForm } from './support/browser';
-import { expectCount, expectNoForeignRequests, expectNoText, expectText } from './support/page-checks';
+import { expectCount, expectNoForeignRequests, expectNoText, expectText, expectValue } from './support/page-checks';
 import { smoothTiff, uploadReady, viewerScene, type ViewerScene } from './support/viewer-scene';
 
 const W = 900;
@@ -175,7 +175,8 @@ describe('e2e: measuring inside an outlined region with sub-bands, V_V from a sa
     await page.getByRole('spinbutton', { name: 'Number of lines' }).fill('1');
     await page.getByRole('spinbutton', { name: 'Number of lines' }).dispatchEvent('change');
     await page.getByRole('checkbox', { name: /Two-phase/ }).check();
-    expect(await page.getByRole('combobox', { name: 'Count' }).inputValue(), 'a two-phase count counts intercepts').to.equal('intercepts');
+    // The page switches the count on its next render: wait for it rather than read it once.
+    await expectValue('a two-phase count counts intercepts', () => page.getByRole('combobox', { name: 'Count' }).inputValue(), 'intercepts');
     await page.getByRole('textbox', { name: 'Phase counted' }).fill('ferrite');
     await page.getByRole('textbox', { name: 'Phase counted' }).dispatchEvent('change');
     const source = page.getByRole('combobox', { name: 'Volume fraction from' });

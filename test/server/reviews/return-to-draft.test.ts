@@ -85,6 +85,21 @@ describe('reviews: an edit after clearing returns the image to draft', () => {
     });
   }
 
+  it('when the lead deletes a class and moves its shapes to another, then a cleared image holding some is a draft again and one without any stays cleared', async () => {
+    const extra = (await s.lead.post(`/api/projects/${s.projectId}/annotation-classes`, { name: `Inclusion ${Date.now()}`, colour: 'verdigris', shapeKind: 'point_or_outline' })).body;
+    expect(extra.id, JSON.stringify(extra)).to.be.a('string');
+    const holding = await clearedWithThread(async (sc, id) => (await sc.researcher.post(annotations(sc, id), { classId: extra.id, kind: 'point', points: [[40, 40]] })).body.id as string);
+    const without = await clearedWithThread();
+
+    const res = await s.lead.delete(`/api/projects/${s.projectId}/annotation-classes/${extra.id}?moveTo=${await classId(s, 'Pore')}`);
+
+    expect(res.status, JSON.stringify(res.body)).to.equal(204);
+    expect(await stateOf(holding.imageId)).to.equal('draft');
+    const [last] = await sql('SELECT from_state, to_state, actor_id, note FROM review_events WHERE subject_id = $1 ORDER BY seq DESC LIMIT 1', [holding.imageId]);
+    expect(last).to.deep.equal({ from_state: 'cleared', to_state: 'draft', actor_id: s.people.lead.id, note: 'changed the annotations' });
+    expect(await stateOf(without.imageId)).to.equal('cleared');
+  });
+
   it('when an image waiting for reviewers is edited, then it stays with them and nobody is told it went back', async () => {
     const imageId = await makeImageRow(s.projectId, s.people.researcher, { width: 2000, height: 1500 }, 0.5);
     await move(s.researcher, s, imageId, 'submit');
