@@ -60,6 +60,8 @@ export class ThreadList {
   readonly panelLetters = input<readonly string[]>([]);
   readonly members = input<readonly Mentionable[]>([]);
   readonly canComment = input(false);
+  /** The typed-point "New thread" form; off where threads are pinned by clicking (the viewer). */
+  readonly offerNewThread = input(true);
   /** A thread to bring into view once loaded (from a notification link, ?thread=…). */
   readonly focusThread = input<string | null>(null);
   /** A thread was opened, resolved or reopened: the open count of the review changed. */

@@ -52,6 +52,7 @@ const EXCERPT_CHARS = 70;
         [imageHeight]="image().height"
         [members]="members()"
         [canComment]="canComment()"
+        [offerNewThread]="false"
         [focusThread]="board.focused()"
         (changed)="board.changed()"
       />
@@ -62,6 +63,7 @@ const EXCERPT_CHARS = 70;
       display: flex;
       flex-direction: column;
       gap: 12px;
+      padding: 12px 16px;
     }
     .pins {
       list-style: none;
