@@ -1,34 +1,15 @@
 import { z } from 'zod';
 
-/** What a class of annotation is drawn as. `point_or_outline` classes accept either. */
-export const SHAPE_KINDS = ['line', 'point', 'outline', 'point_or_outline', 'text'] as const;
-export type ShapeKind = (typeof SHAPE_KINDS)[number];
-
-/** The drawing tools' shapes, stored in full-resolution image pixels (x right, y down). */
-export const ANNOTATION_KINDS = ['polyline', 'polygon', 'rectangle', 'point', 'ruler', 'angle', 'text'] as const;
-export type AnnotationKind = (typeof ANNOTATION_KINDS)[number];
-
-/** Which tool shapes fit which class kind. Rulers and angles are measurements and fit any class. */
-export const KINDS_FOR_SHAPE: Record<ShapeKind, readonly AnnotationKind[]> = {
-  line: ['polyline', 'ruler', 'angle'],
-  point: ['point', 'ruler', 'angle'],
-  outline: ['polygon', 'rectangle', 'ruler', 'angle'],
-  point_or_outline: ['point', 'polygon', 'rectangle', 'ruler', 'angle'],
-  text: ['text', 'ruler', 'angle'],
-};
-
-/** Our palette for annotation classes: distinct on light and dark micrographs. */
-export const ANNOTATION_COLOURS = {
-  cobalt: '#3a5bd9',
-  saffron: '#e6a700',
-  copper: '#c8743a',
-  magenta: '#c2378a',
-  crimson: '#d1343f',
-  verdigris: '#2a9d8f',
-  slate: '#7a8894',
-  lime: '#7db61c',
-} as const;
-export type AnnotationColour = keyof typeof ANNOTATION_COLOURS;
+export {
+  ANNOTATION_COLOURS,
+  ANNOTATION_KINDS,
+  KINDS_FOR_SHAPE,
+  SHAPE_KINDS,
+  type AnnotationColour,
+  type AnnotationKind,
+  type ShapeKind,
+} from './kinds';
+import { ANNOTATION_COLOURS, ANNOTATION_KINDS, SHAPE_KINDS, type AnnotationColour, type AnnotationKind, type ShapeKind } from './kinds';
 
 export interface AnnotationClass {
   id: string;

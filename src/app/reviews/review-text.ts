@@ -1,12 +1,5 @@
-import {
-  REVIEW_STATE_LABELS,
-  TRANSITION_RULES,
-  type ReviewEvent,
-  type ReviewSnapshot,
-  type ReviewState,
-  type ReviewTransition,
-  type ThreadAnchor,
-} from '../../../shared/reviews';
+import { REVIEW_STATE_LABELS, TRANSITION_RULES, type ReviewState, type ReviewTransition } from '../../../shared/review-states';
+import type { ReviewEvent, ReviewSnapshot, ThreadAnchor } from '../../../shared/reviews';
 
 /**
  * Words the review screens show: state names, move names, anchors, history lines.

@@ -6,7 +6,8 @@ import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
-import { ANNOTATION_COLOURS, SHAPE_KINDS, type AnnotationClass, type AnnotationClassBody, type AnnotationColour, type ShapeKind } from '../../../shared/annotations/annotations';
+import type { AnnotationClass, AnnotationClassBody } from '../../../shared/annotations/annotations';
+import { ANNOTATION_COLOURS, SHAPE_KINDS, type AnnotationColour, type ShapeKind } from '../../../shared/annotations/kinds';
 import { apiErrorMessage } from '../core/api-error-message';
 import { ViewerApi } from './viewer-api';
 

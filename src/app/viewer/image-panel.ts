@@ -3,7 +3,8 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, output } f
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { of } from 'rxjs';
-import { MODALITY_LABELS, type ImageRecord, type ImageSummary } from '../../../shared/images';
+import type { ImageRecord, ImageSummary } from '../../../shared/images';
+import { MODALITY_LABELS } from '../../../shared/modalities';
 import { PIXEL_SIZE_SOURCE_LABELS, type PixelSizeSource } from '../../../shared/pixel-size';
 import { remote } from '../core/remote';
 import { formatPixelSize } from './calibration-input';
