@@ -20,8 +20,10 @@ import { requireCsrfToken } from './http/csrf';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { requestLogger } from './http/request-logger';
 import { sessionMiddleware } from './http/session';
+import { viewerPage } from './http/viewer-preload';
 import { projectsRouter } from './projects/projects.routes';
 import { reviewQueueRouter, reviewsRouter } from './reviews/reviews.routes';
+import { VIEWER_PATH } from '../shared/viewer/viewer-path';
 
 /** Builds the Express app for a context; never listens (main.ts and tests do). */
 export function createApp(ctx: AppContext): Express {
@@ -83,6 +85,11 @@ function serveClient(app: Express, clientDir: string): void {
       return;
     }
     res.setHeader('Cache-Control', 'no-cache');
+    const viewer = VIEWER_PATH.test(req.path) ? viewerPage(clientDir) : null;
+    if (viewer) {
+      res.type('html').send(viewer);
+      return;
+    }
     res.sendFile(path.join(clientDir, 'index.html'), (err) => {
       if (err) res.status(503).type('text').send('The client is not built yet. Run `npm start`, which builds it.');
     });

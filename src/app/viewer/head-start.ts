@@ -1,3 +1,4 @@
+import { VIEWER_PATH } from '../../../shared/viewer/viewer-path';
 import { fitViewport, levelForScale, visibleTiles } from '../../../shared/viewer/viewport';
 
 /**
@@ -10,7 +11,6 @@ import { fitViewport, levelForScale, visibleTiles } from '../../../shared/viewer
  * answer is missing or not a success, and a failed import is simply retried by the router.
  */
 
-const VIEWER_PATH = /^\/projects\/([^/]+)\/images\/([^/]+)\/view\/?$/;
 /** Tiles fetched at once; the rest of the browser's six connections stay free for the app's code. */
 const PARALLEL_TILES = 4;
 /** A fitted view beyond this many tiles is unusual; then the page's own requests are left alone. */

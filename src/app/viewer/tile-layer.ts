@@ -29,6 +29,9 @@ export class TileLayer {
   private readonly failed = new Map<string, number>();
   private shown = new Set<string>();
   private destroyed = false;
+  private markDrawn: () => void = () => undefined;
+  /** Resolves when the first tiles are placed to be drawn (the page holds other work back until then). */
+  readonly firstDrawn = new Promise<void>((resolve) => (this.markDrawn = resolve));
 
   constructor(
     private readonly K: KonvaModule,
@@ -79,6 +82,7 @@ export class TileLayer {
     }
     for (const key of this.shown) if (!next.has(key)) this.nodes.get(key)?.visible(false);
     this.shown = next;
+    if (next.size > 0) this.markDrawn();
     // Pixels as blocks once they are bigger than a device pixel: a micrograph shows what was measured.
     this.layer.imageSmoothingEnabled(v.scale * pixelRatio < 2);
     this.request(plan.fetch);

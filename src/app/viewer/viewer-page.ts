@@ -8,7 +8,8 @@ import { MatTab, MatTabGroup } from '@angular/material/tabs';
 import { MatTooltip } from '@angular/material/tooltip';
 import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
-import { ANNOTATION_COLOURS, KINDS_FOR_SHAPE, type AnnotationColour, type AnnotationKind, type Coordinates } from '../../../shared/annotations/annotations';
+import type { Coordinates } from '../../../shared/annotations/annotations';
+import { ANNOTATION_COLOURS, KINDS_FOR_SHAPE, type AnnotationColour, type AnnotationKind } from '../../../shared/annotations/kinds';
 import type { Point } from '../../../shared/annotations/geometry';
 import { shapeProblem } from '../../../shared/annotations/shape-rules';
 import type { ImageRecord, ImageSummary } from '../../../shared/images';
@@ -48,6 +49,8 @@ import type { ViewerInteraction } from './viewer-interaction';
 import { isShown, type ViewShape } from './view-shapes';
 
 const ZOOM_STEP = 1.5;
+/** How long the side panels wait for the first tiles at most. */
+const FIRST_TILES_WAIT_MS = 1000;
 
 /**
  * The micrograph viewer: tiles on a konva stage (loaded only on this page), annotation tools,
@@ -207,7 +210,7 @@ export default class ViewerPage implements OnDestroy {
   private comparePane: ComparePane | null = null;
   private interaction: ViewerInteraction | null = null;
   private resizeObserver: ResizeObserver | null = null;
-  /** The konva stage is mounted (the side panels wait for it, see the template). */
+  /** The stage is up and its first tiles are drawn (the side panels, shapes and pins wait for it). */
   protected readonly stageReady = signal(false);
   private mounting = false;
   private editing: { key: string; points: Coordinates } | null = null;
@@ -597,8 +600,14 @@ export default class ViewerPage implements OnDestroy {
     });
     this.resizeObserver.observe(host);
     this.view.set(v);
-    // One frame later: the stage's first frame asks for the tiles before the side panels lay out.
-    requestAnimationFrame(() => this.stageReady.set(true));
+    // The side panels and shapes wait until the first tiles are drawn (or a second has passed): their
+    // layout would otherwise hold back the frame that shows the micrograph.
+    const stage = this.stage;
+    void Promise.race([stage.tiles.firstDrawn, new Promise((r) => setTimeout(r, FIRST_TILES_WAIT_MS))]).then(() =>
+      requestAnimationFrame(() => {
+        if (this.stage === stage) this.stageReady.set(true);
+      }),
+    );
   }
 
   private finished(result: FinishedDraft): void {
