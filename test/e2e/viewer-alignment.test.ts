@@ -1,9 +1,9 @@
 import { expect } from 'chai';
-import type { Browser, Locator } from 'playwright-core';
+import type { Locator } from 'playwright-core';
 import { TEST_PASSWORD } from '../support/fixtures';
 import { runningServer } from '../support/test-server';
-import { explainFailure, freshApp, type WatchedApp } from './support/app-session';
-import { launchBrowser, signInThroughForm } from './support/browser';
+import { chromiumPerTest } from './support/app-session';
+import { signInThroughForm } from './support/browser';
 import { expectCount, expectNoForeignRequests, expectText, expectValue } from './support/page-checks';
 import { clickAt, expectPointsNear, smoothTiff, uploadReady, viewerCanvas, viewerPath, viewerScene, type ViewerScene } from './support/viewer-scene';
 
@@ -36,16 +36,13 @@ async function pointIn(pane: Locator, centre: Pt, scale: number, [x, y]: Pt): Pr
 
 describe('e2e: aligning a co-located image by point pairs and laying it over in Chromium', function () {
   this.timeout(120_000);
-  let browser: Browser;
-  let closeBrowser: () => Promise<void>;
+  const session = chromiumPerTest();
   let scene: ViewerScene;
   let mainId: string;
   let otherId: string;
-  let app: WatchedApp | undefined;
 
   before(async function () {
     this.timeout(180_000);
-    ({ browser, close: closeBrowser } = await launchBrowser());
     scene = await viewerScene();
     mainId = await uploadReady(scene, await smoothTiff(MAIN.width, MAIN.height, 0.5, 11), 'field-light.tif');
     otherId = await uploadReady(scene, await smoothTiff(OTHER.width, OTHER.height, 1.0, 12), 'field-sem.tif');
@@ -58,24 +55,11 @@ describe('e2e: aligning a co-located image by point pairs and laying it over in 
     expect(drawn.status, JSON.stringify(drawn.body)).to.equal(201);
   });
 
-  after(async () => {
-    await closeBrowser?.();
-  });
-
-  beforeEach(async () => {
-    app = await freshApp(browser);
-  });
-
-  afterEach(async function () {
-    await explainFailure(this.currentTest, app);
-    await app?.context.close();
-    app = undefined;
-  });
 
   it('when a researcher picks two point pairs by mouse and sets the opacity, then the similarity is saved and the overlay is drawn at that opacity', async () => {
-    const { page } = app!;
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    await page.goto(app!.url(viewerPath(scene.project.id, mainId)));
+    const { page } = session.app;
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    await page.goto(session.app.url(viewerPath(scene.project.id, mainId)));
     const main = viewerCanvas(page);
     await main.locator('.stage canvas').first().waitFor();
 
@@ -147,6 +131,6 @@ describe('e2e: aligning a co-located image by point pairs and laying it over in 
     await page.getByRole('tab', { name: 'Image' }).click();
     await page.getByRole('button', { name: 'Compare side by side with field-sem.tif' }).click();
     await expectText(page.getByRole('region', { name: 'Alignment with the main image' }), /Scale, rotation and shift from 2 point pairs, saved by/);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 });

@@ -3,11 +3,11 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { expect } from 'chai';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { TEST_PASSWORD } from '../support/fixtures';
 import { runningServer } from '../support/test-server';
-import { explainFailure, chooseOption, freshApp, type WatchedApp } from './support/app-session';
-import { launchBrowser, signInThroughForm } from './support/browser';
+import { chooseOption, chromiumPerTest } from './support/app-session';
+import { signInThroughForm } from './support/browser';
 import { expectCount, expectNoForeignRequests, expectText, expectValue } from './support/page-checks';
 import {
   clickAt,
@@ -43,19 +43,16 @@ const tool = (page: Page, name: string) => page.getByRole('button', { name, exac
 
 describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', function () {
   this.timeout(120_000);
-  let browser: Browser;
-  let closeBrowser: () => Promise<void>;
+  const session = chromiumPerTest();
   let scene: ViewerScene;
   let drawnId: string;
   let importTargetId: string;
   let refusedId: string;
   let micrometerId: string;
-  let app: WatchedApp | undefined;
   let scratch: string;
 
   before(async function () {
     this.timeout(180_000);
-    ({ browser, close: closeBrowser } = await launchBrowser());
     scene = await viewerScene();
     drawnId = await uploadReady(scene, await smoothTiff(W, H, 0.5, 1), 'interface-drawn.tif');
     importTargetId = await uploadReady(scene, await smoothTiff(W, H, 0.5, 2), 'interface-imported.tif');
@@ -64,25 +61,14 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     scratch = mkdtempSync(path.join(os.tmpdir(), 'etchfile-geojson-'));
   });
 
-  after(async () => {
-    await closeBrowser?.();
+  after(() => {
     if (scratch) rmSync(scratch, { recursive: true, force: true });
   });
 
-  beforeEach(async () => {
-    app = await freshApp(browser);
-  });
-
-  afterEach(async function () {
-    await explainFailure(this.currentTest, app);
-    await app?.context.close();
-    app = undefined;
-  });
-
   it('when a researcher draws two bond interfaces and three oxide particles with the mouse at 1:1, then the database holds them at the clicked image pixels and a reload lists them', async () => {
-    const { page } = app!;
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    const at = await openAtActualPixels(app!, scene.project.id, drawnId, { width: W, height: H });
+    const { page } = session.app;
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    const at = await openAtActualPixels(session.app, scene.project.id, drawnId, { width: W, height: H });
     const to = ([x, y]: Pt) => at(x, y);
 
     // Bond interfaces (the first class, chosen by default): one ended with Enter, one with a double click.
@@ -125,15 +111,15 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     await expectCount(list.getByRole('button', { name: /^Polyline, Bond interface/ }), 2);
     await expectCount(list.getByRole('button', { name: /^Rectangle, Oxide particle/ }), 2);
     await expectCount(list.getByRole('button', { name: /^Outline, Oxide particle/ }), 1);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a researcher exports the GeoJSON of an image and imports the file onto another image, then the other image holds the same shapes', async () => {
-    const { page } = app!;
+    const { page } = session.app;
     const source = await storedShapes(drawnId);
     expect(source, 'the shapes drawn by the previous test').to.have.length(5);
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    await page.goto(app!.url(viewerPath(scene.project.id, drawnId)));
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    await page.goto(session.app.url(viewerPath(scene.project.id, drawnId)));
     await expectCount(page.getByRole('list', { name: 'Annotations of this image' }).getByRole('listitem'), 5);
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export GeoJSON' }).click()]);
@@ -148,7 +134,7 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     const rings = geojson.features.filter((f: { geometry: { type: string } }) => f.geometry.type === 'Polygon');
     expect(rings.map((f: { geometry: { coordinates: Pt[][] } }) => f.geometry.coordinates[0])).to.deep.equal(source.slice(2).map((s) => [...s.points, s.points[0]]));
 
-    await page.goto(app!.url(viewerPath(scene.project.id, importTargetId)));
+    await page.goto(session.app.url(viewerPath(scene.project.id, importTargetId)));
     await viewerCanvas(page).waitFor();
     await expectText(page.getByText('No annotations on this image yet.'), 'No annotations');
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Import GeoJSON' }).click()]);
@@ -159,13 +145,13 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     const imported = await storedShapes(importTargetId);
     expect(imported.map((s) => `${s.kind} ${s.className}`)).to.deep.equal(source.map((s) => `${s.kind} ${s.className}`));
     imported.forEach((s, i) => expectPointsNear(`imported ${s.kind} ${i}`, s.points, source[i]!.points, 1e-6));
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a researcher closes an outline whose edges cross, then it is refused with the reason and nothing is stored', async () => {
-    const { page } = app!;
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    const at = await openAtActualPixels(app!, scene.project.id, refusedId, { width: W, height: H });
+    const { page } = session.app;
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    const at = await openAtActualPixels(session.app, scene.project.id, refusedId, { width: W, height: H });
     await chooseOption(page, page.getByRole('combobox', { name: 'Class for new shapes' }), 'Oxide particle');
     await tool(page, 'Polygon tool').click();
     // A bow tie: the edge from the first to the second corner crosses the one from the third to the fourth.
@@ -176,14 +162,14 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     await page.waitForTimeout(1000);
     expect(await storedShapes(refusedId)).to.deep.equal([]);
     await expectText(page.getByText(/No annotations on this image yet/), 'No annotations');
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a researcher pulls a new vertex out of an outline edge and Alt+clicks another vertex away, then the stored outline has the new vertex and not the removed one', async () => {
-    const { page } = app!;
+    const { page } = session.app;
     expect(await storedShapes(refusedId), 'the image the previous test left empty').to.deep.equal([]);
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    const at = await openAtActualPixels(app!, scene.project.id, refusedId, { width: W, height: H });
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    const at = await openAtActualPixels(session.app, scene.project.id, refusedId, { width: W, height: H });
     await chooseOption(page, page.getByRole('combobox', { name: 'Class for new shapes' }), 'Oxide particle');
     await tool(page, 'Polygon tool').click();
     const square: Pt[] = [[900, 700], [1100, 700], [1100, 900], [900, 900]];
@@ -215,13 +201,13 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     await expectText(page.getByRole('alert'), 'An outline needs at least 3 vertices');
     await page.waitForTimeout(500);
     expect((await storedShapes(refusedId))[0]!.points).to.have.length(3);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a researcher drags the calibrate tool along 100 µm of a stage micrometer and enters the length, then the stored pixel size is 0.25 µm', async () => {
-    const { page } = app!;
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    const at = await openAtActualPixels(app!, scene.project.id, micrometerId, { width: W, height: 1400 });
+    const { page } = session.app;
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    const at = await openAtActualPixels(session.app, scene.project.id, micrometerId, { width: W, height: 1400 });
     await expectText(page.locator('header .calibration-chip'), 'Uncalibrated');
 
     await tool(page, 'Calibrate').click();
@@ -239,14 +225,14 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
     expect(row.pixel_size_source).to.equal('drawn');
     expect(row.pixel_size_um).to.be.closeTo(0.25, 0.0025);
     await expectCount(page.locator('header .calibration-chip.uncalibrated'), 0);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a reviewer opens an image in the viewer, then no drawing, calibrating or importing tools are offered', async () => {
-    const { page } = app!;
-    await signInThroughForm(app!, scene.reviewer.email, TEST_PASSWORD);
+    const { page } = session.app;
+    await signInThroughForm(session.app, scene.reviewer.email, TEST_PASSWORD);
     const projectLoaded = page.waitForResponse((r) => new URL(r.url()).pathname === `/api/projects/${scene.project.id}` && r.status() === 200);
-    await page.goto(app!.url(viewerPath(scene.project.id, drawnId)));
+    await page.goto(session.app.url(viewerPath(scene.project.id, drawnId)));
     await projectLoaded;
     await viewerCanvas(page).waitFor();
     await tool(page, 'Select tool').waitFor();
@@ -258,6 +244,6 @@ describe('e2e: viewer annotations, GeoJSON and calibration in Chromium', functio
       expect(await tool(page, name).count(), `${name} offered to a reviewer`).to.equal(0);
     }
     expect(await page.getByRole('combobox', { name: 'Class for new shapes' }).count()).to.equal(0);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 });

@@ -1,9 +1,9 @@
 import { expect } from 'chai';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { makeUser, TEST_PASSWORD } from '../support/fixtures';
 import { runningServer } from '../support/test-server';
-import { explainFailure, freshApp, type WatchedApp } from './support/app-session';
-import { launchBrowser, signInThroughForm } from './support/browser';
+import { chromiumPerTest } from './support/app-session';
+import { signInThroughForm } from './support/browser';
 import { expectCount, expectNoForeignRequests, expectText, expectValue } from './support/page-checks';
 import { clickAt, dragFrom, expectPointsNear, openAtActualPixels, smoothTiff, uploadReady, viewerCanvas, viewerPath, viewerScene, type ViewerScene } from './support/viewer-scene';
 
@@ -29,37 +29,21 @@ async function writeFirstComment(page: Page, body: string): Promise<void> {
 
 describe('e2e: comment pins on the micrograph in Chromium', function () {
   this.timeout(120_000);
-  let browser: Browser;
-  let closeBrowser: () => Promise<void>;
+  const session = chromiumPerTest();
   let scene: ViewerScene;
   let imageId: string;
-  let app: WatchedApp | undefined;
 
   before(async function () {
     this.timeout(180_000);
-    ({ browser, close: closeBrowser } = await launchBrowser());
     scene = await viewerScene();
     imageId = await uploadReady(scene, await smoothTiff(W, H, 0.5, 7), 'pinned-field.tif');
   });
 
-  after(async () => {
-    await closeBrowser?.();
-  });
-
-  beforeEach(async () => {
-    app = await freshApp(browser);
-  });
-
-  afterEach(async function () {
-    await explainFailure(this.currentTest, app);
-    await app?.context.close();
-    app = undefined;
-  });
 
   it('when a reviewer clicks a point and drags a box with the comment pin, then two threads are stored at those image pixels and listed as numbered pins', async () => {
-    const { page } = app!;
-    await signInThroughForm(app!, scene.reviewer.email, TEST_PASSWORD);
-    const at = await openAtActualPixels(app!, scene.project.id, imageId, { width: W, height: H });
+    const { page } = session.app;
+    await signInThroughForm(session.app, scene.reviewer.email, TEST_PASSWORD);
+    const at = await openAtActualPixels(session.app, scene.project.id, imageId, { width: W, height: H });
 
     await page.getByRole('button', { name: 'Comment pin', exact: true }).click();
     await clickAt(page, at(700, 500));
@@ -79,15 +63,15 @@ describe('e2e: comment pins on the micrograph in Chromium', function () {
     await expectCount(pins.getByRole('button'), 2);
     await expectText(pins.getByRole('button').nth(0), 'Oxide chain along the interface here?');
     await expectText(page.getByRole('tab', { name: 'Comments (2)' }), 'Comments (2)');
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a notification link carries ?thread=, then the viewer opens the Comments tab on that thread and centres the view on its pin', async () => {
-    const { page } = app!;
+    const { page } = session.app;
     const threads = await storedThreads(imageId);
     expect(threads, 'the threads of the previous test').to.have.length(2);
-    await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
-    await page.goto(app!.url(`${viewerPath(scene.project.id, imageId)}?thread=${threads[0]!.id}`));
+    await signInThroughForm(session.app, scene.user.email, TEST_PASSWORD);
+    await page.goto(session.app.url(`${viewerPath(scene.project.id, imageId)}?thread=${threads[0]!.id}`));
     await viewerCanvas(page).waitFor();
 
     await expectText(page.getByRole('tab', { selected: true }), 'Comments');
@@ -112,19 +96,19 @@ describe('e2e: comment pins on the micrograph in Chromium', function () {
     // And the list flies back to the first one.
     await page.getByRole('button', { name: 'Pin 1, open: Oxide chain along the interface here?' }).click();
     await expectCount(page.locator(`#thread-${threads[0]!.id}.focused`), 1);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 
   it('when a guest opens the viewer, then no comment pin tool is offered but the pins and threads show', async () => {
-    const { page } = app!;
+    const { page } = session.app;
     const guest = await makeUser();
     await runningServer().ctx.dataSource.query(`INSERT INTO project_memberships (project_id, user_id, role) VALUES ($1, $2, 'guest')`, [scene.project.id, guest.id]);
-    await signInThroughForm(app!, guest.email, TEST_PASSWORD);
-    await page.goto(app!.url(viewerPath(scene.project.id, imageId)));
+    await signInThroughForm(session.app, guest.email, TEST_PASSWORD);
+    await page.goto(session.app.url(viewerPath(scene.project.id, imageId)));
     await viewerCanvas(page).waitFor();
     await page.getByRole('tab', { name: /^Comments/ }).click();
     await expectCount(page.getByRole('list', { name: 'Comment pins on this image' }).getByRole('button'), 2);
     await expectCount(page.getByRole('button', { name: 'Comment pin', exact: true }), 0);
-    expectNoForeignRequests(app!);
+    expectNoForeignRequests(session.app);
   });
 });

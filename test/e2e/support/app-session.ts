@@ -1,5 +1,5 @@
 import type { Browser, Locator, Page } from 'playwright-core';
-import { openApp, type AppPage } from './browser';
+import { launchBrowser, openApp, type AppPage } from './browser';
 import { expectCount, expectPath, expectText } from './page-checks';
 
 /** Actions fail after this long instead of playwright's 30 s, so a broken flow reports quickly. */
@@ -40,6 +40,38 @@ export async function explainFailure(test: Mocha.Test | undefined, app: WatchedA
   console.log(
     `    page at ${app.page.url()}\n    page text: ${JSON.stringify(text.slice(0, 600))}\n    fields: ${fields.join(', ')}\n    troubles: ${JSON.stringify(app.troubles)}`,
   );
+}
+
+/**
+ * The hooks a browser test file needs, in one call inside its describe(): one Chromium for the file,
+ * a fresh signed-out page for each test, and, when a test fails, where that page was and what went
+ * wrong in it. Tests read `session.app` (and `session.browser` for a second page).
+ */
+export function chromiumPerTest(): { readonly browser: Browser; readonly app: WatchedApp } {
+  let browser: Browser | undefined;
+  let close: (() => Promise<void>) | undefined;
+  let app: WatchedApp | undefined;
+  before(async function () {
+    this.timeout(60_000);
+    ({ browser, close } = await launchBrowser());
+  });
+  after(async () => close?.());
+  beforeEach(async () => {
+    app = await freshApp(browser!);
+  });
+  afterEach(async function () {
+    await explainFailure(this.currentTest, app);
+    await app?.context.close();
+    app = undefined;
+  });
+  return {
+    get browser() {
+      return browser!;
+    },
+    get app() {
+      return app!;
+    },
+  };
 }
 
 /** Signs out through the account menu and waits for the sign-in form. */
