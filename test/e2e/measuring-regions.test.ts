@@ -65,7 +65,7 @@ describe('e2e: measuring inside an outlined region with sub-bands, V_V from a sa
     return { imageId, interfaceId: drawn.body.id as string };
   }
 
-  it('when a researcher measures inside an outlined region with sub-bands 0-20-40-60 µm, then the pattern is clipped to the outline, the edges are drawn, and each sub-band has its own result, also on the summary page', async () => {
+  it('when a researcher measures inside an outlined region with sub-bands 0-20-40-60 µm, then the pattern is clipped to the outline, the edges are drawn, and each sub-band has its own result, also on the summary page, whose field figure is clipped the same way', async () => {
     const { imageId } = await laminate('zoned.tif', 5);
     const zone = await scene.client.post(`/api/projects/${scene.project.id}/images/${imageId}/annotations`, {
       classId: scene.classes['Deformation zone'], kind: 'rectangle', points: ZONE, label: 'near bond',
@@ -148,6 +148,15 @@ describe('e2e: measuring inside an outlined region with sub-bands, V_V from a sa
     await expectText(layers.locator('tbody td').nth(0), '1');
     await expectText(layers.locator('tbody td').nth(5), /^3 P on 390/);
     await expectNoText(layers, 'µm from the nearest bond interface');
+    // The field's figure draws the lines as counted, clipped to the outline (x 150–750, y 170–430), and the three marks.
+    const drawing = page.getByRole('region', { name: 'Fields' }).getByRole('img', { name: 'Field 1 · zoned.tif · region “near bond”: test lines and marks' });
+    await expectCount(drawing.locator('polyline.test-line'), 3);
+    await expectCount(drawing.locator('.mark'), 3);
+    const drawn = await drawing.locator('polyline.test-line').evaluateAll((ls) => ls.map((l) => l.getAttribute('points')!.split(' ').map((q) => q.split(',').map(Number))));
+    for (const [px, py] of drawn.flat()) {
+      expect(px, 'a drawn line lies inside the outline').to.be.within(150, 750);
+      expect(py, 'a drawn line lies inside the outline').to.be.within(170 - 1e-6, 430 + 1e-6);
+    }
     expectNoForeignRequests(app!);
   });
 

@@ -6,7 +6,7 @@ import { etchedMicrograph, voronoiLabels } from '../support/synthetic-micrograph
 import { runningServer } from '../support/test-server';
 import { explainFailure, freshApp, type WatchedApp } from './support/app-session';
 import { launchBrowser, signInThroughForm } from './support/browser';
-import { expectCount, expectNoForeignRequests, expectText } from './support/page-checks';
+import { expectCount, expectNoForeignRequests, expectText, expectValue } from './support/page-checks';
 import { smoothTiff, uploadReady, viewerScene, type ViewerScene } from './support/viewer-scene';
 
 const W = 900;
@@ -82,7 +82,7 @@ describe('e2e: measuring grain size by intercepts in Chromium', function () {
     app = undefined;
   });
 
-  it('when a researcher counts a layer band with accepted suggestions and two marks of their own, then the saved row holds every mark and a reload shows the same l̄ and G', async () => {
+  it('when a researcher counts a layer band with accepted suggestions and two marks of their own, then the saved row holds every mark, a reload shows the same l̄ and G, and the summary page draws the field with its lines and marks', async () => {
     const { page } = app!;
     await signInThroughForm(app!, scene.user.email, TEST_PASSWORD);
     await page.goto(app!.url(measurePath(scene.project.id, laminateId)));
@@ -164,6 +164,35 @@ describe('e2e: measuring grain size by intercepts in Chromium', function () {
     await saved.getByRole('button', { name: 'Reopen' }).click();
     await expectText(resultValue(page, 'Mean lineal intercept l̄'), lBar);
     await expectText(resultValue(page, 'ASTM grain size G'), g);
+
+    // The specimen's summary draws the saved field: its preview, the test lines as the server counted them
+    // (one polyline per counted piece) and one glyph per confirmed mark, as the saved measurement lists them.
+    const listed = await scene.client.get(`/api/projects/${scene.project.id}/images/${laminateId}/measurements`);
+    expect(listed.status).to.equal(200);
+    const field = listed.body[0] as { id: string; testLines: { pieces: unknown[] }[]; definition: { marks: { status: string }[] } };
+    const pieceCount = field.testLines.reduce((n, l) => n + l.pieces.length, 0);
+    expect(pieceCount, 'band 1 holds counted pieces of the lines').to.be.above(0);
+    const [{ specimen_id: specimenId }] = await runningServer().ctx.dataSource.query('SELECT specimen_id FROM images WHERE id = $1', [laminateId]);
+    await page.goto(app!.url(`/projects/${scene.project.id}/specimens/${specimenId}/grain-size`));
+    const figure = page.getByRole('region', { name: 'Fields' }).locator('figure');
+    await expectCount(figure, 1);
+    const drawing = figure.getByRole('img', { name: 'Field 1 · laminate.tif · band 1: test lines and marks' });
+    await expectCount(drawing.locator('polyline.test-line'), pieceCount);
+    await expectCount(drawing.locator('.mark'), field.definition.marks.filter((m) => m.status === 'confirmed').length);
+    await expectCount(drawing.locator('.mark'), suggested + 2);
+    await expectValue('the preview is drawn under the pattern', () => figure.locator('img').evaluate((i: HTMLImageElement) => i.complete && i.naturalWidth > 0), true);
+    const caption = figure.locator('figcaption');
+    await expectText(caption, `l̄ = ${lBar}, G = ${g}.`);
+    await expectText(caption, `P = ${intersections}`);
+    // 900 px × 0.5 µm/px = 450 µm wide; the largest 1-2-5 length within a fifth (90 µm) is 50 µm = 100 px (common practice, no source).
+    await expectText(caption, 'Pixel size 0.5 µm/px, TIFF resolution tags; scale bar 50 µm.');
+    expect(Number(await drawing.locator('.scale-bar rect.bar').getAttribute('width'))).to.be.closeTo(100, 1e-9);
+    await figure.getByRole('link', { name: 'Reopen field 1 on the measuring page' }).click();
+    await expectText(page.locator('.editing'), 'Editing the measurement on band 1');
+    await expectText(resultValue(page, 'Mean lineal intercept l̄'), lBar);
+    // The bench draws the reopened field with the same component: every confirmed mark, no suggestion.
+    await expectCount(pattern.locator('.mark'), suggested + 2);
+    await expectCount(pattern.locator('.suggestion'), 0);
     expectNoForeignRequests(app!);
   });
 

@@ -8,6 +8,8 @@ import { remote } from '../core/remote';
 import { ImageApi } from '../archive/image-api';
 import { Breadcrumbs, type Crumb } from '../archive/breadcrumbs';
 import { ProjectApi } from '../projects/project-api';
+import type { FieldImage } from './field-figure';
+import { FieldFigures } from './field-figures';
 import { InterceptPlot } from './intercept-plot';
 import { PrintFrame } from './print-frame';
 import { MeasurementsApi } from './measurements-api';
@@ -19,10 +21,10 @@ import { distanceBars, interceptBars, layerRows, rowLabel, subBandLabel, subBand
 export const SUMMARY_CAUTION =
   'These numbers support research; they do not certify material for structural use — follow the applicable standard and accredited practice.';
 
-/** A specimen's grain size across its measured fields: table, plot, downloads and a printable method statement. */
+/** A specimen's grain size across its measured fields: table, plot, field figures, downloads and a printable method statement. */
 @Component({
   selector: 'ef-grain-size-page',
-  imports: [Breadcrumbs, InterceptPlot, MatAnchor, MatButton, MatIcon, MatProgressBar, PrintFrame],
+  imports: [Breadcrumbs, FieldFigures, InterceptPlot, MatAnchor, MatButton, MatIcon, MatProgressBar, PrintFrame],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './grain-size-page.html',
   styleUrl: './grain-size-page.scss',
@@ -40,11 +42,14 @@ export default class GrainSizePage {
   private readonly ids = computed(() => ({ projectId: this.projectId(), specimenId: this.specimenId() }));
   protected readonly project = remote(this.projectId, (id) => this.projectApi.get(id));
   protected readonly summary = remote(this.ids, ({ projectId, specimenId }) => this.api.summary(projectId, specimenId));
-  /** Every measurement on the specimen's images, for the method statement (pattern, rules, calibration). */
+  /** The specimen's images with their measurements: the method statement (pattern, rules, calibration) and the field figures. */
   protected readonly fields = remote(this.ids, ({ projectId, specimenId }) =>
     this.imageApi.search(projectId, { page: 0, pageSize: 100, sort: 'uploadedAt', dir: 'asc', specimenId }).pipe(
-      switchMap((page) => (page.items.length === 0 ? of([]) : forkJoin(page.items.map((i) => this.api.list(projectId, i.id))))),
-      map((lists) => lists.flat()),
+      switchMap((page) =>
+        page.items.length === 0
+          ? of<FieldImage[]>([])
+          : forkJoin(page.items.map((image) => this.api.list(projectId, image.id).pipe(map((measurements): FieldImage => ({ image, measurements }))))),
+      ),
     ),
   );
 
@@ -82,7 +87,7 @@ export default class GrainSizePage {
       g: formatG(r.g),
     })),
   );
-  protected readonly method = computed(() => methodNotes(this.fields.value() ?? []));
+  protected readonly method = computed(() => methodNotes((this.fields.value() ?? []).flatMap((f) => f.measurements)));
   protected readonly caution = SUMMARY_CAUTION;
   protected readonly summaryCsv = computed(() => this.api.summaryCsvUrl(this.projectId(), this.specimenId()));
   protected readonly fieldsCsv = computed(() => this.api.fieldsCsvUrl(this.projectId(), this.specimenId()));

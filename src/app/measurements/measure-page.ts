@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, signal, untracked } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
@@ -30,6 +30,8 @@ import { MeasureResult } from './measure-result';
 import { SavedMeasurements } from './saved-measurements';
 import { formatCount, formatDuration, formatUmPerPx } from './measure-units';
 import { markNear, pathSegments, snapToSegments } from './test-line-snap';
+import { markRadiusFor } from './mark-glyphs';
+import { PatternMarks } from './pattern-marks';
 
 type Kind = 'intercept' | 'point_count' | 'thickness';
 /** How close (screen px) a click must land to a line, mark or grid point. */
@@ -38,7 +40,7 @@ const CLICK_REACH_PX = 10;
 /** The measuring bench: lay a test pattern over a micrograph, mark boundary hits, save, reopen. */
 @Component({
   selector: 'ef-measure-page',
-  imports: [Breadcrumbs, MatButton, MatIcon, MatProgressBar, MeasureResult, RouterLink, SavedMeasurements],
+  imports: [Breadcrumbs, MatButton, MatIcon, MatProgressBar, MeasureResult, PatternMarks, RouterLink, SavedMeasurements],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './measure-page.html',
   styleUrl: './measure-page.scss',
@@ -53,6 +55,8 @@ export default class MeasurePage {
   /** Route parameters. */
   readonly projectId = input.required<string>();
   readonly imageId = input.required<string>();
+  /** Query parameter `?measurement=<id>`: a saved measurement to reopen once the list arrives (links from the summary). */
+  readonly measurement = input<string>();
 
   private readonly ids = computed(() => ({ projectId: this.projectId(), imageId: this.imageId() }));
   protected readonly project = remote(this.projectId, (id) => this.projectApi.get(id));
@@ -110,7 +114,6 @@ export default class MeasurePage {
     const e = this.editing();
     return e && e.kind === 'intercept' && !this.patternDirty() ? e.testLines : null;
   });
-  protected readonly storedPolylines = computed(() => (this.storedPaths() ?? []).flatMap((p) => p.pieces.map((piece) => piece.map((q) => q.join(',')).join(' '))));
   protected readonly testLines = computed(() =>
     this.calibrated() && this.kind() === 'intercept' && !this.storedPaths() ? patternLines(this.pattern(), this.size().w, this.size().h, this.layUmPerPx()!) : [],
   );
@@ -148,8 +151,7 @@ export default class MeasurePage {
     const total = this.grid().length;
     return { inside, boundary, total, fraction: total > 0 ? (inside + boundary / 2) / total : null };
   });
-  /** Mark size in image px: about 6 screen px on a preview some 900 px wide. */
-  protected readonly markRadius = computed(() => Math.max(2, this.size().w / 150));
+  protected readonly markRadius = computed(() => markRadiusFor(this.size().w));
   protected readonly crumbs = computed<Crumb[]>(() => {
     const i = this.image.value();
     const p = this.projectId();
@@ -165,6 +167,17 @@ export default class MeasurePage {
   private readonly pageTitle = effect(() => {
     const i = this.image.value();
     if (i) this.title.setTitle(`Measure ${i.originalName} · Etchfile`);
+  });
+  /** The measurement a link asked for, reopened once (later reloads of the list leave the bench alone). */
+  private readonly linkedOpened = signal<string | null>(null);
+  private readonly openLinked = effect(() => {
+    const id = this.measurement();
+    const found = id ? this.saved.value()?.find((m) => m.id === id) : undefined;
+    if (!found || untracked(this.linkedOpened) === found.id) return;
+    untracked(() => {
+      this.linkedOpened.set(found.id);
+      this.reopen(found);
+    });
   });
 
   protected chooseKind(kind: string): void {
