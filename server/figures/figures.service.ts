@@ -17,6 +17,7 @@ import { returnFigureToDraftIfCleared } from '../reviews/return-to-draft';
 import { FigureExport } from './figure-export.entity';
 import { Figure } from './figure.entity';
 import { renderFigure } from './figure-renderer';
+import { followPanelThreads } from './panel-moves';
 
 const toDto = (f: Figure, reviewState: ReviewState): FigureDto => ({
   id: f.id,
@@ -81,6 +82,8 @@ export class FiguresService {
         .where('id = :figureId AND version = :version', { figureId, version })
         .execute();
       if (result.affected !== 1) throw AppError.conflict(`Someone changed this figure after you loaded it (you had version ${version}, it is now ${figure.version}). Reload, then edit again.`);
+      // Threads pinned to a panel follow it when panels are reordered, edited or removed.
+      await followPanelThreads(m, figureId, figure.spec.panels, next.panels);
       await recordActivity(m, { projectId, actorId: user.id, action: 'catalogue.updated', summary: `edited the figure “${next.title}”` });
       await returnFigureToDraftIfCleared(m, figureId, user.id);
     });
