@@ -187,7 +187,13 @@ describe('e2e: measuring grain size by intercepts in Chromium', function () {
     // 900 px × 0.5 µm/px = 450 µm wide; the largest 1-2-5 length within a fifth (90 µm) is 50 µm = 100 px (common practice, no source).
     await expectText(caption, 'Pixel size 0.5 µm/px, TIFF resolution tags; scale bar 50 µm.');
     expect(Number(await drawing.locator('.scale-bar rect.bar').getAttribute('width'))).to.be.closeTo(100, 1e-9);
-    await figure.getByRole('link', { name: 'Reopen field 1 on the measuring page' }).click();
+    // Printed, the page flows over the sheets (the shell no longer scrolls inside the window) and the link is left out.
+    const reopenLink = figure.getByRole('link', { name: 'Reopen field 1 on the measuring page' });
+    await page.emulateMedia({ media: 'print' });
+    await expectValue('the reopen link is hidden in print', () => reopenLink.isVisible(), false);
+    await expectValue('the printed page is taller than the window', () => page.evaluate(() => document.documentElement.scrollHeight > window.innerHeight), true);
+    await page.emulateMedia({ media: 'screen' });
+    await reopenLink.click();
     await expectText(page.locator('.editing'), 'Editing the measurement on band 1');
     await expectText(resultValue(page, 'Mean lineal intercept l̄'), lBar);
     // The bench draws the reopened field with the same component: every confirmed mark, no suggestion.

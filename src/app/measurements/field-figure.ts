@@ -115,7 +115,7 @@ export function fieldFigure(image: FieldImage['image'], m: Measurement, number: 
   const caption = [
     `Pattern: ${describePattern(m.definition.pattern)}; direction ${directionWords(r, m.definition.pattern.type)}.`,
     `L = ${formatLength(r.lineLengthUm)}, ${r.countSymbol} = ${formatCount(r.count)}, l̄ = ${formatUm(r.meanInterceptUm, 2)}, G = ${formatG(r.g)}.`,
-    `Pixel size ${pixelSizeWords(m.pixelSize)}${scaleBar ? `; scale bar ${scaleBar.label}` : ''}.`,
+    `Pixel size ${pixelSizeWords(m.pixelSize)}${scaleBar ? `; scale bar ${scaleBar.label.replace(' ', '\u00a0')}` : ''}.`,
   ];
   if (r.phase) caption.push(`l̄ of ${r.phase.name}, volume fraction ${r.phase.volumeFraction.toFixed(3)}.`);
   if (r.marksLeftOut > 0) caption.push(`${r.marksLeftOut} confirmed mark(s) off the counted lines were left out.`);

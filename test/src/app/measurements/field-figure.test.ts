@@ -82,7 +82,7 @@ describe('client: field figures, what a figure draws and says', () => {
     expect(f.caption).to.deep.equal([
       'Pattern: 2 parallel lines horizontal, 50 µm apart; direction along the bond interfaces.',
       `L = 800.0${NB}µm, P = 2.5, l̄ = 320.00${NB}µm, G = 0.0.`,
-      `Pixel size 0.5${NB}µm/px, TIFF resolution tags; scale bar 50 µm.`,
+      `Pixel size 0.5${NB}µm/px, TIFF resolution tags; scale bar 50${NB}µm.`,
     ]);
     expect(f.stale).to.equal(null);
   });
