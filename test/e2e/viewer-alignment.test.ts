@@ -105,8 +105,11 @@ describe('e2e: aligning a co-located image by point pairs and laying it over in 
     const slider = card.getByRole('slider', { name: 'Overlay opacity' });
     await slider.fill('30');
     await expectText(card, 'Opacity 30 %');
-    // The overlaid image's canvas on the main pane, faded by CSS (alignment-layer.ts).
-    await expectValue('overlay opacity', async () => (await main.locator('.alignment-layer canvas').evaluateAll((cs) => cs.map((c) => (c as HTMLCanvasElement).style.opacity))).includes('0.3'), true);
+    // The overlaid image's canvas on the main pane, faded by CSS (alignment-layer.ts), between the
+    // micrograph's tiles and its annotations: right after the tile canvas, before the shapes'.
+    await expectValue('overlay opacity', async () => (await main.locator('canvas.alignment-overlay').evaluateAll((cs) => cs.map((c) => (c as HTMLCanvasElement).style.opacity))).includes('0.3'), true);
+    const order = await main.locator('.stage canvas').evaluateAll((cs) => cs.map((c) => (c.classList.contains('alignment-overlay') ? 'overlay' : 'stage')));
+    expect(order.slice(0, 3), 'tiles, the overlaid image, then the shapes').to.deep.equal(['stage', 'overlay', 'stage']);
 
     const rows = await runningServer().ctx.dataSource.query('SELECT image_id, other_image_id, kind, pairs, transform FROM image_alignments WHERE image_id = $1', [mainId]);
     expect(rows).to.have.length(1);
@@ -126,7 +129,7 @@ describe('e2e: aligning a co-located image by point pairs and laying it over in 
 
     // Hidden, then shown again after a reload: the saved alignment is read back, not redone.
     await card.getByRole('button', { name: 'Hide overlay' }).click();
-    await expectCount(main.locator('.alignment-layer canvas'), 1);
+    await expectCount(main.locator('canvas.alignment-overlay'), 0);
     await page.reload();
     await page.getByRole('tab', { name: 'Image' }).click();
     await page.getByRole('button', { name: 'Compare side by side with field-sem.tif' }).click();

@@ -48,6 +48,8 @@ export class AlignmentLayer {
     view: Viewport,
     /** Called with the image point of a click while picking is on. */
     private readonly clicked: (p: [number, number]) => void,
+    /** The main pane's tile canvas: the overlaid image goes right above it, below the annotations. */
+    private readonly underShapes: HTMLElement | null = null,
   ) {
     this.view = view;
     this.el = document.createElement('div');
@@ -76,6 +78,10 @@ export class AlignmentLayer {
       const tiles = new TileLayer(this.K, image, image.tile, image.preview, () => this.redraw());
       this.stage.add(tiles.layer);
       tiles.layer.moveToBottom();
+      const canvas = tiles.layer.getNativeCanvasElement();
+      canvas.classList.add('alignment-overlay');
+      // Between the micrograph and its shapes, so the annotations stay readable over the other image.
+      this.underShapes?.after(canvas);
       this.overlay = { tiles, transform };
       this.setOpacity(this.opacity);
     }

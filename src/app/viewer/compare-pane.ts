@@ -31,6 +31,8 @@ export interface MainPane {
   image: ComparedImage;
   /** The main pane's stage element: the overlay is laid right after it, and clicks on it are picked points. */
   stageEl: HTMLDivElement;
+  /** The main pane's tile canvas: the overlaid image is drawn just above it, under the annotations. */
+  tileCanvas: HTMLCanvasElement;
   view: () => Viewport | null;
   setView: (v: Viewport) => void;
   viewChanged: (v: Viewport) => void;
@@ -86,7 +88,7 @@ export class ComparePane {
       commitEdit: () => undefined,
       cursorMoved: () => undefined,
     });
-    this.mainLayer = new AlignmentLayer(m.Konva, main.stageEl, main.stageEl, mainView, (p) => this.picked?.('main', p));
+    this.mainLayer = new AlignmentLayer(m.Konva, main.stageEl, main.stageEl, mainView, (p) => this.picked?.('main', p), main.tileCanvas);
     this.otherLayer = new AlignmentLayer(m.Konva, stageHost, stageHost, this.view, (p) => this.picked?.('other', p));
     this.observer = new ResizeObserver(() => {
       const current = main.view();

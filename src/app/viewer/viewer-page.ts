@@ -543,7 +543,7 @@ export default class ViewerPage implements OnDestroy {
       host,
       stageHost,
       other,
-      { image: a, stageEl: this.stageHost()!.nativeElement, view: () => this.view(), setView: (v) => this.setView(v), viewChanged: (v) => this.compareView.set(v) },
+      { image: a, stageEl: this.stageHost()!.nativeElement, tileCanvas: this.stage!.tileCanvas, view: () => this.view(), setView: (v) => this.setView(v), viewChanged: (v) => this.compareView.set(v) },
       { tile: (level, col, row) => tileUrl(projectId, other.id, level, col, row), preview: previewUrl(projectId, other.id) },
     );
     if (!isNeutralTone(this.tone())) this.comparePane.setFilter('url(#ef-viewer-tone)');
