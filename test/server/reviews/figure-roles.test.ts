@@ -1,9 +1,6 @@
-import { expect } from 'chai';
-import type { ProjectAction } from '../../../shared/roles';
-import type { ApiClient } from '../../support/api-client';
-import { mountApp } from '../../support/api-client';
 import { sql } from '../db-state';
-import { ACTORS, expectedOutcome, sceneFor, who, type Scene } from '../role-actors';
+import type { Scene } from '../role-actors';
+import { eachReviewRouteForEachActor, type ReviewRouteCase } from './review-route-matrix';
 import { figureReviewRecords, FIXTURE_SIZE, imageWithOriginal } from './figure-review-fixtures';
 
 /** What a route needs to succeed when the role allows it: the figure in a review state and a thread on it in a given status. */
@@ -12,20 +9,10 @@ interface Ready {
   threadId: string;
 }
 
-interface RouteCase {
-  route: string;
-  action: ProjectAction;
-  ok: number;
-  /** The review state the figure must be in for the move to be possible. */
-  state?: 'with_reviewers' | 'cleared';
-  /** The status the thread must have for the route to be possible. */
-  thread?: 'open' | 'resolved';
-  call(c: ApiClient, s: Scene, r: Ready): Promise<{ status: number; body: unknown }>;
-}
 
 const figure = (s: Scene, r: Ready) => `/api/projects/${s.project.id}/figures/${r.figureId}`;
 const thread = (s: Scene, r: Ready) => `${figure(s, r)}/threads/${r.threadId}`;
-const ROUTES: RouteCase[] = [
+const ROUTES: ReviewRouteCase<Ready>[] = [
   { route: 'GET …/review', action: 'read', ok: 200, call: (c, s, r) => c.get(`${figure(s, r)}/review`) },
   { route: 'POST …/review/submit', action: 'submitForReview', ok: 200, call: (c, s, r) => c.post(`${figure(s, r)}/review/submit`, {}) },
   { route: 'POST …/review/request-changes', action: 'decideReview', ok: 200, state: 'with_reviewers', call: (c, s, r) => c.post(`${figure(s, r)}/review/request-changes`, { note: 'Redo.' }) },
@@ -41,7 +28,7 @@ const ROUTES: RouteCase[] = [
 ];
 
 /** A one-panel figure in the state the route needs, and a thread on it (opened by the lead) in the status it needs. */
-async function ready(s: Scene, r: RouteCase): Promise<Ready> {
+async function ready(s: Scene, r: ReviewRouteCase<Ready>): Promise<Ready> {
   const imageId = await imageWithOriginal(s.project.id, s.owner);
   const spec = { columns: 1, gapMm: 1, commonScaleBar: true, widthMm: 30, dpi: 100, panels: [{ imageId, region: { x: 0, y: 0, ...FIXTURE_SIZE }, classIds: [], legend: false, letter: 'a', scaleBar: { lengthUm: null, position: 'bottom-right', colour: 'auto', show: true } }] };
   const [row] = await sql<{ id: string }>(`INSERT INTO figures (project_id, title, spec, created_by) VALUES ($1, 'Role plate', $2, $3) RETURNING id`, [s.project.id, JSON.stringify(spec), s.owner.id]);
@@ -64,23 +51,5 @@ async function ready(s: Scene, r: RouteCase): Promise<Ready> {
 
 describe('reviews: the roles matrix on every figure review and comment route (from PERMISSIONS)', function () {
   this.timeout(30_000);
-  let app: Awaited<ReturnType<typeof mountApp>>;
-  before(async () => (app = await mountApp()));
-  after(() => app.close());
-
-  for (const r of ROUTES) {
-    describe(`figure ${r.route} (needs ${r.action})`, () => {
-      for (const actor of ACTORS) {
-        const outcome = expectedOutcome(actor, r.action);
-        it(`when a ${who(actor)} calls it on a figure, then ${outcome === 'allowed' ? r.ok : outcome}${outcome === 'allowed' ? '' : ' and nothing changes'}`, async () => {
-          const s = await sceneFor(app.url, actor);
-          const target = await ready(s, r);
-          const before = await figureReviewRecords(s.project.id, target.figureId);
-          const res = await r.call(s.client, s, target);
-          expect(res.status, JSON.stringify(res.body)).to.equal(outcome === 'allowed' ? r.ok : outcome);
-          if (outcome !== 'allowed') expect(await figureReviewRecords(s.project.id, target.figureId)).to.deep.equal(before);
-        });
-      }
-    });
-  }
+  eachReviewRouteForEachActor(ROUTES, ready, (s, t) => figureReviewRecords(s.project.id, t.figureId), 'figure');
 });

@@ -1,10 +1,7 @@
-import { expect } from 'chai';
-import type { ProjectAction } from '../../../shared/roles';
-import type { ApiClient } from '../../support/api-client';
 import { makeImageRow } from '../../support/catalogue-fixtures';
-import { mountApp } from '../../support/api-client';
 import { sql } from '../db-state';
-import { ACTORS, expectedOutcome, sceneFor, who, type Scene } from '../role-actors';
+import type { Scene } from '../role-actors';
+import { eachReviewRouteForEachActor, type ReviewRouteCase } from './review-route-matrix';
 import { reviewRecords } from './review-fixtures';
 
 /** What a route needs to succeed when the role allows it: the image's review state and a thread in a given status. */
@@ -13,20 +10,10 @@ interface Ready {
   threadId: string;
 }
 
-interface RouteCase {
-  route: string;
-  action: ProjectAction;
-  ok: number;
-  /** The review state the image must be in for the move to be possible. */
-  state?: 'with_reviewers' | 'cleared';
-  /** The status the thread must have for the route to be possible. */
-  thread?: 'open' | 'resolved';
-  call(c: ApiClient, s: Scene, r: Ready): Promise<{ status: number; body: unknown }>;
-}
 
 const image = (s: Scene, r: Ready) => `/api/projects/${s.project.id}/images/${r.imageId}`;
 const thread = (s: Scene, r: Ready) => `${image(s, r)}/threads/${r.threadId}`;
-const ROUTES: RouteCase[] = [
+const ROUTES: ReviewRouteCase<Ready>[] = [
   { route: 'GET …/review', action: 'read', ok: 200, call: (c, s, r) => c.get(`${image(s, r)}/review`) },
   { route: 'POST …/review/submit', action: 'submitForReview', ok: 200, call: (c, s, r) => c.post(`${image(s, r)}/review/submit`, {}) },
   { route: 'POST …/review/request-changes', action: 'decideReview', ok: 200, state: 'with_reviewers', call: (c, s, r) => c.post(`${image(s, r)}/review/request-changes`, { note: 'Redo.' }) },
@@ -43,7 +30,7 @@ const ROUTES: RouteCase[] = [
 ];
 
 /** An image in the state the route needs, and a thread (opened by the project's lead) in the status it needs. */
-async function ready(s: Scene, r: RouteCase): Promise<Ready> {
+async function ready(s: Scene, r: ReviewRouteCase<Ready>): Promise<Ready> {
   const imageId = await makeImageRow(s.project.id, s.owner);
   if (r.state) {
     await sql(
@@ -61,24 +48,6 @@ async function ready(s: Scene, r: RouteCase): Promise<Ready> {
   return { imageId, threadId: row!.id };
 }
 
-describe('reviews: the roles matrix on every review and comment route (from PERMISSIONS)', () => {
-  let app: Awaited<ReturnType<typeof mountApp>>;
-  before(async () => (app = await mountApp()));
-  after(() => app.close());
-
-  for (const r of ROUTES) {
-    describe(`${r.route} (needs ${r.action})`, () => {
-      for (const actor of ACTORS) {
-        const outcome = expectedOutcome(actor, r.action);
-        it(`when a ${who(actor)} calls it, then ${outcome === 'allowed' ? r.ok : outcome}${outcome === 'allowed' ? '' : ' and nothing changes'}`, async () => {
-          const s = await sceneFor(app.url, actor);
-          const target = await ready(s, r);
-          const before = await reviewRecords(s.project.id, target.imageId);
-          const res = await r.call(s.client, s, target);
-          expect(res.status, JSON.stringify(res.body)).to.equal(outcome === 'allowed' ? r.ok : outcome);
-          if (outcome !== 'allowed') expect(await reviewRecords(s.project.id, target.imageId)).to.deep.equal(before);
-        });
-      }
-    });
-  }
+describe('reviews: the roles matrix on every review and comment route (from PERMISSIONS)', function () {
+  eachReviewRouteForEachActor(ROUTES, ready, (s, t) => reviewRecords(s.project.id, t.imageId));
 });
